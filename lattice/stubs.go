@@ -1,0 +1,74 @@
+package lattice
+
+// This file fixes the builder and modifier signatures that the rest of the
+// project calls. Each stub is replaced by its real implementation in a file
+// named after its family (chain.go, square.go, gasket.go …); delete the stub
+// when its implementation lands.
+
+import (
+	"errors"
+	"math/rand/v2"
+)
+
+var errTODO = errors.New("lattice: not implemented yet")
+
+// CarpetVariant selects how a Sierpinski carpet becomes a graph.
+type CarpetVariant int
+
+const (
+	// CarpetCells puts a site at the centre of every kept cell and bonds
+	// edge-sharing kept cells: 8^g sites.
+	CarpetCells CarpetVariant = iota
+	// CarpetCorners puts a site at every corner of a kept cell and bonds
+	// along kept cell edges.
+	CarpetCorners
+)
+
+// Law is the distribution of a random perturbation.
+type Law int
+
+const (
+	// Box is uniform in [−w/2, w/2].
+	Box Law = iota
+	// Gauss is normal with standard deviation w.
+	Gauss
+)
+
+// Disorder describes on-site and bond disorder: on-site energies get an
+// added draw of width Onsite; each bond weight is multiplied by (1 + δ) with
+// δ of width Bond, both from Law.
+type Disorder struct {
+	Onsite, Bond float64
+	Law          Law
+}
+
+func Chain(n int, periodic bool) (*Graph, error)              { return nil, errTODO }
+func Square(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
+func Triangle(side int) (*Graph, error)                       { return nil, errTODO }
+func TriangularPatch(w, h int, periodic bool) (*Graph, error) { return nil, errTODO }
+func Honeycomb(w, h int, periodic bool) (*Graph, error)       { return nil, errTODO }
+func Kagome(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
+func Lieb(w, h int, periodic bool) (*Graph, error)            { return nil, errTODO }
+func Cubic(w, h, d int, periodic bool) (*Graph, error)        { return nil, errTODO }
+func Hypercube(d int) (*Graph, error)                         { return nil, errTODO }
+func Complete(n int) (*Graph, error)                          { return nil, errTODO }
+func Star(leaves int) (*Graph, error)                         { return nil, errTODO }
+func CayleyTree(z, shells int) (*Graph, error)                { return nil, errTODO }
+func Gasket(g int) (*Graph, error)                            { return nil, errTODO }
+func Carpet(g int, v CarpetVariant) (*Graph, error)           { return nil, errTODO }
+func Vicsek(g int) (*Graph, error)                            { return nil, errTODO }
+func TFractal(g int) (*Graph, error)                          { return nil, errTODO }
+func Fibonacci(n int, weak, strong float64) (*Graph, error)   { return nil, errTODO }
+func Harper(n int, lambda, beta, phase float64) (*Graph, error) {
+	return nil, errTODO
+}
+
+func (g *Graph) ScaleHopping(s float64) (*Graph, error) { return nil, errTODO }
+func (g *Graph) Remove(sites []int) (h *Graph, kept []int, err error) {
+	return nil, nil, errTODO
+}
+func (g *Graph) RemoveIf(drop func(i int, pos []float64) bool) (h *Graph, kept []int, err error) {
+	return nil, nil, errTODO
+}
+func (g *Graph) WithDisorder(d Disorder, rng *rand.Rand) (*Graph, error) { return nil, errTODO }
+func (g *Graph) WithFlux(flux float64) (*Graph, error)                   { return nil, errTODO }
