@@ -7,3 +7,5 @@ require (
 	golang.org/x/exp v0.0.0-20261113113407-e3970619a1a4 // indirect
 	gonum.org/v1/gonum v0.17.0 // indirect
 )
+
+require go.yaml.in/yaml/v3 v3.0.5 // indirect

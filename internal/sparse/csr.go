@@ -1,6 +1,3 @@
-// Package sparse holds the compressed-sparse-row matrices and the product
-// kernels that every propagator in ampwalk runs on. It is internal: the
-// public packages keep their API while these loops get faster.
 package sparse
 
 // CSR is a square sparse matrix in compressed-sparse-row form with a
@@ -12,14 +9,19 @@ package sparse
 //
 // and the diagonal entry Diag[i] (Diag == nil means a zero diagonal).
 // Indices are int32, so a matrix holds at most 2³¹−1 stored entries.
+//
+// Workers bounds the goroutines a product uses: 0 means GOMAXPROCS, 1 means
+// the calling goroutine only. Results are bit-for-bit reproducible for a
+// given Workers (see the package documentation).
 type CSR struct {
-	N      int
-	RowPtr []int32
-	Col    []int32
-	Val    []float64
-	Unit   float64
-	Imag   []float64
-	Diag   []float64
+	N       int
+	RowPtr  []int32
+	Col     []int32
+	Val     []float64
+	Unit    float64
+	Imag    []float64
+	Diag    []float64
+	Workers int
 }
 
 // NNZ returns the number of stored off-diagonal entries.
@@ -31,72 +33,40 @@ func (m *CSR) IsReal() bool { return m.Imag == nil }
 // Len returns the dimension of m.
 func (m *CSR) Len() int { return m.N }
 
-// MulVec sets dst = m·x. dst and x must not overlap.
+// Bytes returns the memory held by m's arrays in bytes.
+func (m *CSR) Bytes() int64 {
+	return 4*int64(len(m.RowPtr)+len(m.Col)) + 8*int64(len(m.Val)+len(m.Imag)+len(m.Diag))
+}
+
+// MulVec sets dst = m·x, in parallel over m's row blocks. dst and x must
+// not overlap.
 //
-// Reference loop:
+// Reference loop (the diagonal is added after the row sum; a pattern-only
+// row sums x and multiplies by Unit once):
 //
 //	for i := range dst {
-//		s := Diag[i]·x[i]
+//		s := 0
 //		for k := RowPtr[i]; k < RowPtr[i+1]; k++ { s += A[k]·x[Col[k]] }
-//		dst[i] = s
+//		dst[i] = s + Diag[i]·x[i]
 //	}
 func (m *CSR) MulVec(dst, x []complex128) {
 	if len(dst) != m.N || len(x) != m.N {
 		panic("sparse: dimension mismatch")
 	}
-	m.MulVecRows(dst, x, 0, m.N)
+	w := m.blockCount()
+	if w == 1 {
+		m.mulRows(dst, x, 0, m.N)
+		return
+	}
+	j := newJob(m, opMul, w)
+	j.dst, j.cur = dst, x
+	j.run()
 }
 
-// MulVecRows computes rows [lo, hi) of dst = m·x.
+// MulVecRows computes rows [lo, hi) of dst = m·x on the calling goroutine,
+// with the reference loop of MulVec.
 func (m *CSR) MulVecRows(dst, x []complex128, lo, hi int) {
-	rp := m.RowPtr
-	col := m.Col
-	for i := lo; i < hi; i++ {
-		var sr, si float64
-		a, b := rp[i], rp[i+1]
-		cs := col[a:b]
-		switch {
-		case m.Imag != nil:
-			vr := m.valRow(a, b)
-			vi := m.Imag[a:b]
-			for k, j := range cs {
-				xj := x[j]
-				r, im := real(xj), imag(xj)
-				sr += vr(k)*r - vi[k]*im
-				si += vr(k)*im + vi[k]*r
-			}
-		case m.Val != nil:
-			vs := m.Val[a:b]
-			for k, j := range cs {
-				xj := x[j]
-				sr += vs[k] * real(xj)
-				si += vs[k] * imag(xj)
-			}
-		default:
-			for _, j := range cs {
-				xj := x[j]
-				sr += real(xj)
-				si += imag(xj)
-			}
-			sr *= m.Unit
-			si *= m.Unit
-		}
-		if m.Diag != nil {
-			d := m.Diag[i]
-			sr += d * real(x[i])
-			si += d * imag(x[i])
-		}
-		dst[i] = complex(sr, si)
-	}
-}
-
-func (m *CSR) valRow(a, b int32) func(k int) float64 {
-	if m.Val == nil {
-		u := m.Unit
-		return func(int) float64 { return u }
-	}
-	v := m.Val[a:b]
-	return func(k int) float64 { return v[k] }
+	m.mulRows(dst, x, lo, hi)
 }
 
 // At returns the entry (i, j) of m. It costs O(row length) and is meant for

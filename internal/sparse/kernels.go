@@ -1,10 +1,16 @@
 package sparse
 
 // Kernels used by the propagators. Each is documented by its reference loop;
-// the implementations may be fused, unrolled and run over row blocks in
-// parallel, but must give bit-identical results for a given worker count
-// (each worker owns a fixed block of rows; reductions sum per-block partials
-// in block order).
+// the implementations fuse the product with the update over chunks of rows
+// (the chunk of m·cur lives in a small stack buffer, so the vectors stream
+// through memory once), allocate nothing and run over the row blocks of
+// m.Workers workers. The Chebyshev expansion they serve is the one of
+// Tal-Ezer & Kosloff, J. Chem. Phys. 81, 3967 (1984):
+// exp(−iHt) ≈ Σ_k c_k T_k(H̃), H̃ = (H − shift)·scale.
+
+// chunk is the number of rows whose product is buffered before the fused
+// update: 256 complex values are 4 KiB, well inside L1.
+const chunk = 256
 
 // ChebNext is one step of the Chebyshev three-term recurrence with the
 // accumulation of the expansion fused in:
@@ -16,15 +22,13 @@ package sparse
 //
 // dst may alias prev (the usual in-place use) but not cur or acc.
 func (m *CSR) ChebNext(dst, cur, prev, acc []complex128, scale, shift float64, coef complex128) {
-	n := m.N
-	tmp := make([]complex128, n)
-	m.MulVecRows(tmp, cur, 0, n)
-	s2 := 2 * scale
-	for i := 0; i < n; i++ {
-		v := complex(s2, 0)*(tmp[i]-complex(shift, 0)*cur[i]) - prev[i]
-		dst[i] = v
-		acc[i] += coef * v
-	}
+	m.cheb(opNext, dst, cur, prev, acc, scale, shift, coef, false)
+}
+
+// ChebNextNorm is ChebNext returning Σ_i |dst[i]|², summed row by row within
+// each block and block by block in order.
+func (m *CSR) ChebNextNorm(dst, cur, prev, acc []complex128, scale, shift float64, coef complex128) float64 {
+	return m.cheb(opNext, dst, cur, prev, acc, scale, shift, coef, true)
 }
 
 // ChebFirst is the first Chebyshev step, T₁ = H̃·T₀:
@@ -33,11 +37,184 @@ func (m *CSR) ChebNext(dst, cur, prev, acc []complex128, scale, shift float64, c
 //		dst[i] = scale·((m·cur)[i] − shift·cur[i])
 //		acc[i] += coef·dst[i]
 //	}
+//
+// dst must not alias cur or acc.
 func (m *CSR) ChebFirst(dst, cur, acc []complex128, scale, shift float64, coef complex128) {
-	m.MulVecRows(dst, cur, 0, m.N)
-	for i := range dst {
-		v := complex(scale, 0) * (dst[i] - complex(shift, 0)*cur[i])
-		dst[i] = v
-		acc[i] += coef * v
+	m.cheb(opFirst, dst, cur, nil, acc, scale, shift, coef, false)
+}
+
+// ChebFirstNorm is ChebFirst returning Σ_i |dst[i]|² (see ChebNextNorm).
+func (m *CSR) ChebFirstNorm(dst, cur, acc []complex128, scale, shift float64, coef complex128) float64 {
+	return m.cheb(opFirst, dst, cur, nil, acc, scale, shift, coef, true)
+}
+
+func (m *CSR) cheb(o op, dst, cur, prev, acc []complex128, scale, shift float64, coef complex128, norm bool) float64 {
+	n := m.N
+	if len(dst) != n || len(cur) != n || len(acc) != n || (o == opNext && len(prev) != n) {
+		panic("sparse: dimension mismatch")
 	}
+	w := m.blockCount()
+	if w == 1 {
+		return m.chebRows(dst, cur, prev, acc, scale, shift, coef, norm, 0, n)
+	}
+	j := newJob(m, o, w)
+	j.dst, j.cur, j.prev, j.acc = dst, cur, prev, acc
+	j.scale, j.shift, j.coef, j.norm = scale, shift, coef, norm
+	return j.run()
+}
+
+// chebRows runs ChebFirst (prev == nil) or ChebNext on rows [lo, hi) and
+// returns Σ|dst[i]|² over them when norm is set.
+func (m *CSR) chebRows(dst, cur, prev, acc []complex128, scale, shift float64, coef complex128, norm bool, lo, hi int) float64 {
+	var buf [chunk]complex128
+	cr, ci := real(coef), imag(coef)
+	s := scale
+	if prev != nil {
+		s = 2 * scale
+	}
+	var sum float64
+	for c := lo; c < hi; c += chunk {
+		e := min(c+chunk, hi)
+		y := buf[:e-c]
+		m.mulRows(y, cur, c, e)
+		cs := cur[c:e]
+		ds := dst[c:e]
+		as := acc[c:e]
+		cs, ds, as = cs[:len(y)], ds[:len(y)], as[:len(y)]
+		if prev == nil {
+			for i, yi := range y {
+				x := cs[i]
+				vr := s * (real(yi) - shift*real(x))
+				vi := s * (imag(yi) - shift*imag(x))
+				ds[i] = complex(vr, vi)
+				a := as[i]
+				as[i] = complex(real(a)+(cr*vr-ci*vi), imag(a)+(cr*vi+ci*vr))
+			}
+		} else {
+			ps := prev[c:e]
+			ps = ps[:len(y)]
+			for i, yi := range y {
+				x := cs[i]
+				p := ps[i]
+				vr := s*(real(yi)-shift*real(x)) - real(p)
+				vi := s*(imag(yi)-shift*imag(x)) - imag(p)
+				ds[i] = complex(vr, vi)
+				a := as[i]
+				as[i] = complex(real(a)+(cr*vr-ci*vi), imag(a)+(cr*vi+ci*vr))
+			}
+		}
+		if norm {
+			sum += sumSq(ds)
+		}
+	}
+	return sum
+}
+
+// ChebNextMulti is ChebNext feeding several expansions from one recurrence,
+// so that one sweep of T_k(H̃)ψ serves several reported times:
+//
+//	for i := range dst {
+//		dst[i] = 2·scale·((m·cur)[i] − shift·cur[i]) − prev[i]
+//		for q := range acc { acc[q][i] += coef[q]·dst[i] }
+//	}
+//
+// dst may alias prev but not cur or any acc[q].
+func (m *CSR) ChebNextMulti(dst, cur, prev []complex128, acc [][]complex128, scale, shift float64, coef []complex128) {
+	m.chebMulti(opNextMulti, dst, cur, prev, acc, scale, shift, coef)
+}
+
+// ChebFirstMulti is ChebFirst feeding several expansions:
+//
+//	for i := range dst {
+//		dst[i] = scale·((m·cur)[i] − shift·cur[i])
+//		for q := range acc { acc[q][i] += coef[q]·dst[i] }
+//	}
+func (m *CSR) ChebFirstMulti(dst, cur []complex128, acc [][]complex128, scale, shift float64, coef []complex128) {
+	m.chebMulti(opFirstMulti, dst, cur, nil, acc, scale, shift, coef)
+}
+
+func (m *CSR) chebMulti(o op, dst, cur, prev []complex128, acc [][]complex128, scale, shift float64, coef []complex128) {
+	n := m.N
+	if len(dst) != n || len(cur) != n || (o == opNextMulti && len(prev) != n) || len(acc) != len(coef) {
+		panic("sparse: dimension mismatch")
+	}
+	for _, a := range acc {
+		if len(a) != n {
+			panic("sparse: dimension mismatch")
+		}
+	}
+	w := m.blockCount()
+	if w == 1 {
+		m.chebMultiRows(dst, cur, prev, acc, coef, scale, shift, 0, n)
+		return
+	}
+	j := newJob(m, o, w)
+	j.dst, j.cur, j.prev, j.accs, j.coefs = dst, cur, prev, acc, coef
+	j.scale, j.shift = scale, shift
+	j.run()
+}
+
+func (m *CSR) chebMultiRows(dst, cur, prev []complex128, acc [][]complex128, coef []complex128, scale, shift float64, lo, hi int) {
+	var buf [chunk]complex128
+	s := scale
+	if prev != nil {
+		s = 2 * scale
+	}
+	for c := lo; c < hi; c += chunk {
+		e := min(c+chunk, hi)
+		y := buf[:e-c]
+		m.mulRows(y, cur, c, e)
+		cs := cur[c:e]
+		cs = cs[:len(y)]
+		if prev == nil {
+			for i, yi := range y {
+				x := cs[i]
+				y[i] = complex(s*(real(yi)-shift*real(x)), s*(imag(yi)-shift*imag(x)))
+			}
+		} else {
+			ps := prev[c:e]
+			ps = ps[:len(y)]
+			for i, yi := range y {
+				x := cs[i]
+				p := ps[i]
+				y[i] = complex(s*(real(yi)-shift*real(x))-real(p), s*(imag(yi)-shift*imag(x))-imag(p))
+			}
+		}
+		copy(dst[c:e], y)
+		for q, a := range acc {
+			cr, ci := real(coef[q]), imag(coef[q])
+			as := a[c:e]
+			as = as[:len(y)]
+			for i, v := range y {
+				vr, vi := real(v), imag(v)
+				ai := as[i]
+				as[i] = complex(real(ai)+(cr*vr-ci*vi), imag(ai)+(cr*vi+ci*vr))
+			}
+		}
+	}
+}
+
+// SumSq returns Σ_i |x[i]|², summed row by row within each of m's row
+// blocks and block by block in order, so it is reproducible for a given
+// m.Workers. len(x) must be m.N.
+func (m *CSR) SumSq(x []complex128) float64 {
+	if len(x) != m.N {
+		panic("sparse: dimension mismatch")
+	}
+	w := m.blockCount()
+	if w == 1 {
+		return sumSq(x)
+	}
+	j := newJob(m, opSumSq, w)
+	j.cur = x
+	return j.run()
+}
+
+// sumSq is for _, v := range x { s += real(v)² + imag(v)² }.
+func sumSq(x []complex128) float64 {
+	var s float64
+	for _, v := range x {
+		s += real(v)*real(v) + imag(v)*imag(v)
+	}
+	return s
 }
