@@ -2,7 +2,6 @@ package walk
 
 import (
 	"context"
-	"errors"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
@@ -69,13 +68,25 @@ type Diagnostics struct {
 // propagation and is returned.
 type Visit func(k int, t float64, state []complex128) error
 
-var errTODO = errors.New("walk: not implemented yet")
-
 // Propagate evolves psi0 under op to each of times (non-negative,
 // non-decreasing), calling visit at each. Quantum dynamics evolves with
-// exp(−iHt); Classical with exp(−Ht) (op is then γL).
+// exp(−iHt); Classical with exp(−Ht) (op is then γL). psi0 is not modified;
+// a time 0 reports psi0 itself.
+//
+// The tolerance is the target 2-norm error of the state at every reported
+// time, relative to ‖psi0‖; the error budget is shared between the steps so
+// that their sum stays below it. The context is checked between steps and
+// segments; a cancelled propagation returns an error wrapping the
+// context's error (errors.Is(err, context.Canceled)) and a *fault.Error of
+// kind Cancelled (errors.As). visit errors are returned unchanged.
+//
+// Input errors are *InputError naming the field: "start" (length or a
+// non-finite entry), "times" (empty, negative, non-finite or decreasing, with
+// the index of the first offending time), "tolerance", "method", "workers",
+// "memory_limit"; a method whose memory estimate (EstimateBytes) exceeds the
+// limit is refused with kind TooLarge.
 func Propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128, times []float64, s Settings, visit Visit) (Diagnostics, error) {
-	return Diagnostics{}, errTODO
+	return propagate(ctx, op, dyn, psi0, times, s, visit)
 }
 
 // QuantumWalk evolves psi0 under H = γW + diag(ε) of g.

@@ -1,0 +1,130 @@
+package walk
+
+import (
+	"context"
+	"fmt"
+	"math"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/internal/sparse"
+)
+
+// Rough costs on the project's reference machine (2 cores), used only to
+// rank the methods against each other (common practice: pick by predicted
+// work; the absolute values do not matter, their ratios do).
+const (
+	// secPerEntry is the time per stored entry of one sparse product,
+	// including the vector updates of the Chebyshev recurrence.
+	secPerEntry = 2e-9
+	// secPerCube is the time per n³ of a dense symmetric eigen-decomposition
+	// with vectors (Householder tridiagonalisation plus QR iteration).
+	secPerCube = 2.5e-9
+	// secPerSquare is the time per n² of one dense complex product.
+	secPerSquare = 2e-9
+	// exactMaxSites is the largest n for which Auto considers exact
+	// diagonalisation at all.
+	exactMaxSites = 2000
+	// krylovMaxSpan is the largest ‖H‖·t for which Auto takes Krylov when
+	// there are few reported times: one Lanczos basis of krylovDim vectors
+	// then covers each step, and no spectral bounds are needed.
+	krylovMaxSpan = 8
+	// krylovMaxTimes is the largest number of reported times (after t = 0)
+	// for which Auto takes Krylov.
+	krylovMaxTimes = 3
+)
+
+// choose builds the propagator for s.Method, choosing one when it is Auto
+// (and saying why in d.Reason). It returns the products spent on setting up
+// (spectral bounds, dense assembly).
+func choose(ctx context.Context, op Operator, classical bool, times []float64, s Settings, d *Diagnostics) (propagator, int, error) {
+	n := op.Len()
+	nnz := estimateNNZ(op)
+	tmax := times[len(times)-1]
+	steps := 0
+	prev := 0.0
+	for _, t := range times {
+		if t > prev {
+			steps++
+			prev = t
+		}
+	}
+	m := s.Method
+	var iv interval
+	haveIV := false
+	if m == Auto {
+		// A cheap upper bound on the spectral radius first: Gershgorin for a
+		// CSR matrix.
+		radius := math.Inf(1)
+		if c, ok := op.(*sparse.CSR); ok {
+			lo, hi := gershgorin(c)
+			radius = math.Max(math.Abs(lo), math.Abs(hi))
+		}
+		exactOK := n <= exactMaxSites && EstimateBytes(n, nnz, Exact) <= s.MemoryLimit
+		switch {
+		case steps <= krylovMaxTimes && radius*tmax <= krylovMaxSpan && n > krylovDim:
+			m = Krylov
+			d.Reason = fmt.Sprintf("few reported times (%d) over a short span (‖H‖·t ≤ %.3g): one small Krylov space per time is cheaper than setting up a Chebyshev expansion", steps, radius*tmax)
+		default:
+			var err error
+			iv, err = spectralInterval(ctx, op)
+			if err != nil {
+				return nil, iv.products, err
+			}
+			haveIV = true
+			a := (iv.hi - iv.lo) / 2
+			chebProducts := a*tmax + 25*float64(steps) + float64(intervalSteps)
+			chebCost := chebProducts * float64(nnz+2*n) * secPerEntry
+			exactCost := math.Inf(1)
+			if exactOK {
+				N := float64(n)
+				exactCost = secPerCube*N*N*N + secPerSquare*2*N*N*float64(steps)
+			}
+			if exactCost < chebCost {
+				m = Exact
+				d.Reason = fmt.Sprintf("%d sites and %d reported times over a span of %.3g (spectral half-width times t_max): diagonalising once (≈%.2g s) is predicted cheaper than ≈%.0f Chebyshev products (≈%.2g s)",
+					n, steps, a*tmax, exactCost, chebProducts, chebCost)
+			} else {
+				m = Chebyshev
+				why := "predicted cheaper than diagonalising"
+				if !exactOK {
+					why = fmt.Sprintf("exact diagonalisation is out of reach at %d sites", n)
+				}
+				d.Reason = fmt.Sprintf("%d sites and a span of %.3g (spectral half-width times t_max): the Chebyshev expansion needs ≈%.0f products, %s", n, a*tmax, chebProducts, why)
+			}
+		}
+	}
+	switch m {
+	case Exact:
+		if b := EstimateBytes(n, nnz, Exact); b > s.MemoryLimit {
+			return nil, 0, fault.Large("method", b, s.MemoryLimit)
+		}
+		p, prods, err := newExact(ctx, op, classical)
+		return p, prods, err
+	case Krylov:
+		if b := EstimateBytes(n, nnz, Krylov); b > s.MemoryLimit {
+			return nil, 0, fault.Large("method", b, s.MemoryLimit)
+		}
+		return newKrylov(op, classical), 0, nil
+	default:
+		if b := EstimateBytes(n, nnz, Chebyshev); b > s.MemoryLimit {
+			return nil, 0, fault.Large("lattice", b, s.MemoryLimit)
+		}
+		if !haveIV {
+			var err error
+			iv, err = spectralInterval(ctx, op)
+			if err != nil {
+				return nil, iv.products, err
+			}
+		}
+		return newChebyshev(op, classical, iv), iv.products, nil
+	}
+}
+
+// estimateNNZ returns the stored entries of op when it says, else 8 per
+// row (a typical lattice).
+func estimateNNZ(op Operator) int {
+	if c, ok := op.(interface{ NNZ() int }); ok {
+		return c.NNZ()
+	}
+	return 8 * op.Len()
+}

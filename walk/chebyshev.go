@@ -1,0 +1,359 @@
+package walk
+
+import (
+	"context"
+	"math"
+	"math/cmplx"
+
+	"github.com/ampwalk/ampwalk/internal/sparse"
+)
+
+// chebyshev propagates by the Chebyshev expansion of the exponential
+// (Tal-Ezer & Kosloff, J. Chem. Phys. 81, 3967 (1984)). With the spectrum of
+// H inside [b−a, b+a] and H̃ = (H − b)/a,
+//
+//	exp(−iHt) = e^{−ibt} [J_0(at) + 2 Σ_{k≥1} (−i)^k J_k(at) T_k(H̃)]
+//	exp(−Ht)  = e^{−bt}  [I_0(at) + 2 Σ_{k≥1} (−1)^k I_k(at) T_k(H̃)]
+//
+// T_k(H̃)ψ comes from the three-term recurrence T_{k+1} = 2H̃T_k − T_{k−1},
+// one product with H per term. Since ‖T_k(H̃)‖ ≤ 1, the 2-norm error of the
+// truncated series is at most ‖ψ‖ times the sum of the neglected
+// coefficients, which is bounded and reported. A step of length Δt costs
+// about aΔt + O((aΔt)^{1/3} log(1/ε)) products; steps with aΔt above
+// maxSegment are split into equal segments.
+type chebyshev struct {
+	op        Operator
+	csr       *sparse.CSR // non-nil: use the fused kernels
+	classical bool
+	b, a      float64 // centre and half-width of the spectral interval
+
+	t1, t2, acc, tmp []complex128
+	bes, scratch     []float64
+	coef             []complex128
+}
+
+// maxSegment is the largest a·Δt done as one series.
+const maxSegment = 500
+
+func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
+	n := op.Len()
+	c := &chebyshev{op: op, classical: classical,
+		b: (iv.hi + iv.lo) / 2, a: (iv.hi - iv.lo) / 2,
+		t1: make([]complex128, n), t2: make([]complex128, n), acc: make([]complex128, n)}
+	if c.a <= 0 {
+		// A multiple of the identity: any positive half-width works.
+		c.a = math.Max(1e-3*math.Abs(c.b), 1e-3)
+	}
+	if m, ok := op.(*sparse.CSR); ok {
+		c.csr = m
+	} else {
+		c.tmp = make([]complex128, n)
+	}
+	return c
+}
+
+func (c *chebyshev) name() string { return "chebyshev" }
+
+// step advances psi by dt with a 2-norm error at most tol.
+func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64) (int, float64, error) {
+	nseg := int(math.Ceil(c.a * dt / maxSegment))
+	nseg = max(nseg, 1)
+	h := dt / float64(nseg)
+	var prods int
+	var errSum float64
+	for s := 0; s < nseg; s++ {
+		if err := ctx.Err(); err != nil {
+			return prods, errSum, cancelled(err)
+		}
+		p, e, err := c.segment(psi, h, tol/float64(nseg))
+		prods += p
+		errSum += e
+		if err != nil {
+			return prods, errSum, err
+		}
+	}
+	return prods, errSum, nil
+}
+
+// segment advances psi by h as one series; when the result fails the norm
+// check (the spectral interval was too narrow), it widens the interval and
+// repeats.
+func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, error) {
+	norm := nrm2(psi)
+	if norm == 0 {
+		return 0, 0, nil
+	}
+	var prods int
+	for try := 0; ; try++ {
+		K, bound := c.coefficients(h, tol/norm)
+		c.series(psi, K)
+		prods += K
+		after := nrm2(c.acc)
+		if math.IsNaN(after) || math.IsInf(after, 0) {
+			return prods, 0, numerical("the Chebyshev series produced a non-finite value")
+		}
+		// The exact quantum evolution keeps the norm; the classical one, with
+		// a positive semi-definite generator, does not increase it. Allow the
+		// truncation bound and rounding (≈ K·ε per term).
+		slack := 10*bound*norm + 1e-13*float64(K+10)*norm
+		bad := false
+		if c.classical {
+			bad = c.b-c.a >= -1e-12*c.a && after > norm+slack
+		} else {
+			bad = math.Abs(after-norm) > slack
+		}
+		if !bad {
+			copy(psi, c.acc)
+			return prods, bound * norm, nil
+		}
+		if try == 8 {
+			return prods, bound * norm, numerical("the Chebyshev series does not conserve the norm even with a widened spectral interval")
+		}
+		c.a *= 1.25
+	}
+}
+
+// coefficients fills c.coef[0:K+1] for a step of length h and returns K and
+// the bound on Σ_{k>K}|coefficient| (relative error of the state).
+//
+// Truncation: the stated bound |J_k(x)| ≤ (x/2)^k/k! (also for e^{−x}I_k)
+// fixes a K that certainly suffices; the computed values then allow an
+// earlier stop. For k ≥ x the ratios r_k = J_{k+1}/J_k lie in
+// [0, x/(2k+2−x)] (from the recurrence written as a continued fraction),
+// and for all k, I_{k+1}/I_k ≤ x/(2k+2); so a tail is at most its first
+// term over one minus that ratio.
+func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
+	x := c.a * h
+	var pre float64 // prefactor of the Bessel values
+	var phase complex128
+	if c.classical {
+		// e^{−bh}I_k(ah) = e^{−(b−a)h}·e^{−x}I_k(x)
+		pre = math.Exp(-(c.b - c.a) * h)
+		phase = 1
+	} else {
+		pre = 1
+		phase = cmplx.Exp(complex(0, -c.b*h))
+	}
+	epsB := eps / math.Max(pre, 1e-300)
+	kb := boundIndex(x, epsB)
+	if cap(c.bes) < kb+2 {
+		c.bes = make([]float64, kb+2)
+		c.coef = make([]complex128, kb+2)
+	}
+	bes := c.bes[:kb+2]
+	if c.classical {
+		c.scratch = besselIScaled(bes, x, c.scratch)
+	} else {
+		c.scratch = besselJ(bes, x, c.scratch)
+	}
+	K := kb
+	tail := 2 * boundTail(x, kb)
+	for k := 1; k < kb; k++ {
+		var t float64
+		if c.classical {
+			r := x / (2 * float64(k+2))
+			if r >= 1 {
+				continue
+			}
+			t = 2 * math.Abs(bes[k+1]) / (1 - r)
+		} else {
+			if float64(k+1) < x {
+				continue
+			}
+			r := x / (2*float64(k+2) - x)
+			if r >= 1 {
+				continue
+			}
+			t = 2 * math.Abs(bes[k+1]) / (1 - r)
+		}
+		t = math.Min(t, 2*boundTail(x, k))
+		if t <= epsB {
+			K, tail = k, t
+			break
+		}
+	}
+	coef := c.coef[:K+1]
+	rot := complex(0, -1) // (−i)^k
+	if c.classical {
+		rot = -1
+	}
+	f := phase * complex(pre, 0)
+	for k := 0; k <= K; k++ {
+		w := 2.0
+		if k == 0 {
+			w = 1
+		}
+		coef[k] = f * complex(w*bes[k], 0)
+		f *= rot
+	}
+	return K, tail * pre
+}
+
+// series sets c.acc = Σ_{k≤K} coef_k T_k(H̃) psi, leaving psi unchanged.
+func (c *chebyshev) series(psi []complex128, K int) {
+	coef := c.coef
+	c0 := coef[0]
+	acc := c.acc
+	for i, v := range psi {
+		acc[i] = c0 * v
+	}
+	if K == 0 {
+		return
+	}
+	s := 1 / c.a
+	c.first(c.t1, psi, s, coef[1])
+	if K == 1 {
+		return
+	}
+	c.next(c.t2, c.t1, psi, s, coef[2])
+	prev, cur := c.t1, c.t2
+	for k := 3; k <= K; k++ {
+		c.next(prev, cur, prev, s, coef[k])
+		prev, cur = cur, prev
+	}
+}
+
+func (c *chebyshev) first(dst, cur []complex128, s float64, coef complex128) {
+	if c.csr != nil {
+		c.csr.ChebFirst(dst, cur, c.acc, s, c.b, coef)
+		return
+	}
+	c.op.MulVec(c.tmp, cur)
+	b, acc := complex(c.b, 0), c.acc
+	for i := range dst {
+		v := complex(s, 0) * (c.tmp[i] - b*cur[i])
+		dst[i] = v
+		acc[i] += coef * v
+	}
+}
+
+func (c *chebyshev) next(dst, cur, prev []complex128, s float64, coef complex128) {
+	if c.csr != nil {
+		c.csr.ChebNext(dst, cur, prev, c.acc, s, c.b, coef)
+		return
+	}
+	c.op.MulVec(c.tmp, cur)
+	b, acc, s2 := complex(c.b, 0), c.acc, complex(2*s, 0)
+	for i := range dst {
+		v := s2*(c.tmp[i]-b*cur[i]) - prev[i]
+		dst[i] = v
+		acc[i] += coef * v
+	}
+}
+
+// Bessel coefficients of the Chebyshev propagator.
+
+// boundTail returns an upper bound on Σ_{k>K} (x/2)^k/k!, the tail of the
+// bound |J_k(x)| ≤ (x/2)^k/k! (and e^{−x}I_k(x) ≤ (x/2)^k/k!; Abramowitz &
+// Stegun 9.1.62 and 9.6.10 (from memory)), or +Inf when K+2 ≤ x/2 where the
+// geometric majorant does not apply. Successive terms of the tail shrink by
+// at most x/(2(K+2)), hence the factor 1/(1 − x/(2(K+2))).
+func boundTail(x float64, K int) float64 {
+	r := x / (2 * float64(K+2))
+	if r >= 1 {
+		return math.Inf(1)
+	}
+	return math.Exp(logBound(x, K+1)) / (1 - r)
+}
+
+// logBound returns ln((x/2)^k/k!).
+func logBound(x float64, k int) float64 {
+	lg, _ := math.Lgamma(float64(k + 1))
+	return float64(k)*math.Log(x/2) - lg
+}
+
+// boundIndex returns the smallest K ≥ 1 with 2·boundTail(x, K) ≤ eps.
+func boundIndex(x, eps float64) int {
+	K := max(1, int(x/2))
+	for 2*boundTail(x, K) > eps {
+		K++
+	}
+	return K
+}
+
+// millerStart returns the even index at which the backward recurrences
+// start: beyond every index needed (need) and far enough out that the
+// neglected values are below 1e-40 (relative to the leading ones).
+func millerStart(x float64, need int) int {
+	n := max(need+10, int(x)+20)
+	for logBound(x, n) > -92 {
+		n++
+	}
+	n += 10
+	return n + n%2
+}
+
+// besselJ sets dst[k] = J_k(x) for x > 0 and k < len(dst), by Miller's
+// backward recurrence J_{k−1} = (2k/x)J_k − J_{k+1} from a start index
+// chosen by millerStart, normalised with the identity J_0² + 2Σ_{k≥1} J_k² = 1
+// (a sum of squares: no cancellation) and the sign of J_0 + 2Σ J_{2k} = 1.
+// (J. C. P. Miller, British Association Mathematical Tables X (1952);
+// Abramowitz & Stegun 9.1.27, 9.1.46, 9.1.76 (from memory).) The backward
+// direction is stable: J_k is the recurrence's minimal solution for k > x.
+// scratch is reused when long enough; the possibly grown scratch is returned.
+func besselJ(dst []float64, x float64, scratch []float64) []float64 {
+	n := millerStart(x, len(dst))
+	if cap(scratch) < n+2 {
+		scratch = make([]float64, n+2)
+	}
+	f := scratch[:n+2]
+	f[n+1], f[n] = 0, 1e-30
+	for k := n; k >= 1; k-- {
+		v := 2*float64(k)/x*f[k] - f[k+1]
+		f[k-1] = v
+		if math.Abs(v) > 1e200 {
+			for q := k - 1; q <= n; q++ {
+				f[q] *= 1e-200
+			}
+		}
+	}
+	var sq, lin float64
+	for k := n; k >= 1; k-- {
+		sq += f[k] * f[k]
+		if k%2 == 0 {
+			lin += f[k]
+		}
+	}
+	sq = 2*sq + f[0]*f[0]
+	lin = 2*lin + f[0]
+	norm := 1 / math.Sqrt(sq)
+	if lin < 0 {
+		norm = -norm
+	}
+	for k := range dst {
+		dst[k] = f[k] * norm
+	}
+	return scratch
+}
+
+// besselIScaled sets dst[k] = e^{−x}I_k(x) for x > 0 and k < len(dst), by
+// the backward recurrence I_{k−1} = (2k/x)I_k + I_{k+1} normalised with
+// e^x = I_0 + 2Σ_{k≥1} I_k (Abramowitz & Stegun 9.6.26, 9.6.37 (from
+// memory)). Every term is positive, so the normalisation does not cancel, and
+// the scaling keeps the values finite for any x.
+func besselIScaled(dst []float64, x float64, scratch []float64) []float64 {
+	n := millerStart(x, len(dst))
+	if cap(scratch) < n+2 {
+		scratch = make([]float64, n+2)
+	}
+	f := scratch[:n+2]
+	f[n+1], f[n] = 0, 1e-30
+	for k := n; k >= 1; k-- {
+		v := 2*float64(k)/x*f[k] + f[k+1]
+		f[k-1] = v
+		if v > 1e200 {
+			for q := k - 1; q <= n; q++ {
+				f[q] *= 1e-200
+			}
+		}
+	}
+	var s float64
+	for k := n; k >= 1; k-- {
+		s += f[k]
+	}
+	s = 2*s + f[0]
+	for k := range dst {
+		dst[k] = f[k] / s
+	}
+	return scratch
+}
