@@ -1,0 +1,111 @@
+package walk
+
+import (
+	"context"
+	"math"
+	"sync"
+)
+
+// Ensemble runs fn for the realisations r = 0 … n−1 on at most workers
+// goroutines (workers ≤ 0: GOMAXPROCS) and returns the n results in
+// realisation order, so that anything combined from them in that order does
+// not depend on scheduling. fn receives a context that is cancelled as soon
+// as any realisation fails; the error returned is that of the lowest
+// failing realisation index (or ctx's error when ctx ends first).
+//
+// Ensemble is the runner behind the "disorder" extension: realisation r
+// draws its disorder from its own seeded stream, so any single realisation
+// can be recomputed alone.
+func Ensemble[R any](ctx context.Context, n, workers int, fn func(ctx context.Context, r int) (R, error)) ([]R, error) {
+	out := make([]R, n)
+	if n <= 0 {
+		return out, nil
+	}
+	errs := make([]error, n)
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	w := min(workersFor(workers), n)
+	next := make(chan int)
+	var wg sync.WaitGroup
+	for range w {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for r := range next {
+				res, err := fn(ctx, r)
+				if err != nil {
+					errs[r] = err
+					cancel()
+					continue
+				}
+				out[r] = res
+			}
+		}()
+	}
+feed:
+	for r := 0; r < n; r++ {
+		select {
+		case next <- r:
+		case <-ctx.Done():
+			break feed
+		}
+	}
+	close(next)
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil && ctx.Err() != nil && isCancel(err) {
+			continue // a consequence of another failure; report that one
+		}
+		if err != nil {
+			return nil, err
+		}
+	}
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
+		}
+	}
+	if err := ctx.Err(); err != nil {
+		// ctx (not a failure) stopped the feed early.
+		return nil, err
+	}
+	return out, nil
+}
+
+// MeanErr returns the mean over samples of each entry and the standard error
+// of that mean, sqrt(Σ(x − x̄)² / (m(m−1))) for m samples (zero for m = 1).
+// Every sample must have the same length. Entries are summed in sample
+// order, so the result does not depend on how the samples were computed.
+func MeanErr(samples [][]float64) (mean, stderr []float64) {
+	m := len(samples)
+	if m == 0 {
+		return nil, nil
+	}
+	L := len(samples[0])
+	mean = make([]float64, L)
+	stderr = make([]float64, L)
+	for _, s := range samples {
+		if len(s) != L {
+			panic("walk: MeanErr samples of different lengths")
+		}
+		for i, v := range s {
+			mean[i] += v
+		}
+	}
+	for i := range mean {
+		mean[i] /= float64(m)
+	}
+	if m == 1 {
+		return mean, stderr
+	}
+	for _, s := range samples {
+		for i, v := range s {
+			d := v - mean[i]
+			stderr[i] += d * d
+		}
+	}
+	for i := range stderr {
+		stderr[i] = math.Sqrt(stderr[i] / float64(m*(m-1)))
+	}
+	return mean, stderr
+}

@@ -1,0 +1,83 @@
+package walk
+
+import (
+	"fmt"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/lattice"
+)
+
+// jobBytes estimates the memory of a walk job on g: the graph and its
+// Hamiltonian (lattice.EstimateBytes, plus weights when the graph is
+// weighted or disordered), the propagator's vectors for each realisation
+// running at once (16 bytes per site per vector: about 8 vectors for
+// Chebyshev, 40 for a Krylov basis, 2n² complex entries for exact
+// diagonalisation), and the stored outputs of every realisation.
+func (j *Job) jobBytes(g *lattice.Graph) int64 {
+	n, m := int64(g.Len()), int64(g.NumBonds())
+	T := int64(len(j.Times))
+	// The graph: positions, bond ends, CSR row starts and columns (the
+	// formula of lattice.EstimateBytes).
+	b := 8*n*int64(g.Dim()) + 8*m + 4*(n+1) + 8*m
+	b += 8*m + 16*2*m // weights and stored CSR values (weighted or disordered copies)
+	_, nr := j.realisations()
+	conc := int64(min(nr, workersFor(0)))
+	var vec int64
+	switch j.Method {
+	case Exact:
+		vec = 2*16*n*n + 16*n*8
+	case Krylov:
+		vec = 16 * n * 40
+	default:
+		vec = 16 * n * 8
+	}
+	if j.reports("average") && j.Window == nil {
+		vec += 2 * 16 * n * n
+	}
+	b += conc * vec
+	out := int64(0)
+	for _, r := range []string{"msd", "return", "spread", "ipr", "entropy", "participation"} {
+		if j.reports(r) {
+			out += 8 * T
+		}
+	}
+	if j.reports("populations") {
+		out += 8 * T * n
+	}
+	if j.reports("correlations") {
+		out += 8*T*n*n + 16*T*n
+	}
+	b += int64(nr) * out
+	b += 8 * n * conc // probability scratch
+	return b
+}
+
+// checkSize refuses jobs beyond the stated limits or the memory limit.
+func (j *Job) checkSize(g *lattice.Graph) error {
+	n, T := g.Len(), len(j.Times)
+	if j.Method == Exact && n > MaxExactSites {
+		return &fault.Error{Kind: fault.TooLarge, Field: "method",
+			Msg: fmt.Sprintf("\"exact\" diagonalises a dense %d×%d matrix (about %d bytes); it is limited to %d sites: use \"auto\", \"krylov\" or \"chebyshev\"",
+				n, n, int64(32)*int64(n)*int64(n), MaxExactSites)}
+	}
+	if j.reports("average") && j.Window == nil && n > MaxExactSites {
+		return &fault.Error{Kind: fault.TooLarge, Field: "report",
+			Msg: fmt.Sprintf("the exact infinite-time \"average\" needs all eigenvectors of a %d-site graph (about %d bytes); it is limited to %d sites: give a \"window\" {\"to\": T} for a finite-time average",
+				n, int64(32)*int64(n)*int64(n), MaxExactSites)}
+	}
+	if j.reports("populations") && int64(n)*int64(T) > MaxPopulationValues {
+		return &fault.Error{Kind: fault.TooLarge, Field: "report",
+			Msg: fmt.Sprintf("\"populations\" would return %d values (%d times × %d sites, about %d bytes of JSON); the limit is %d values: ask for fewer times or reduce with msd, spread, ipr …",
+				int64(n)*int64(T), T, n, int64(n)*int64(T)*24, MaxPopulationValues)}
+	}
+	if j.reports("correlations") && int64(n)*int64(n)*int64(T) > MaxPopulationValues {
+		return &fault.Error{Kind: fault.TooLarge, Field: "report",
+			Msg: fmt.Sprintf("\"correlations\" would return %d values (%d times × %d² site pairs); the limit is %d values",
+				int64(n)*int64(n)*int64(T), T, n, MaxPopulationValues)}
+	}
+	est := j.jobBytes(g)
+	if lim := fault.MemoryLimit(); est > lim {
+		return fault.Large("lattice", est, lim)
+	}
+	return nil
+}

@@ -1,0 +1,74 @@
+package walk
+
+import (
+	"context"
+	"fmt"
+	"io"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/spectra"
+)
+
+// runSpectrum answers a spectrum job: eigenvalues, density of states,
+// spacing ratio and box-counting dimension of the (possibly thinned and
+// disordered) lattice, through package spectra.
+func (j *Job) runSpectrum(ctx context.Context, log io.Writer) (*Response, error) {
+	g, kept, err := j.graph()
+	if err != nil {
+		return nil, err
+	}
+	first, _ := j.realisations()
+	if g, err = j.realise(g, first); err != nil {
+		return nil, err
+	}
+	n, m := g.Len(), g.NumBonds()
+	fmt.Fprintf(log, "ampwalk: job %q: spectrum of a %s lattice with %d sites\n", j.ID, j.Lattice.Kind, n)
+	resp := &Response{ID: j.ID, Sites: &n, Bonds: &m, Kept: kept}
+	s := j.Spectrum
+	needValues := s.Eigenvalues || s.Ratio || (s.DOS != nil && s.DOS.Method == "exact")
+	var values []float64
+	if needValues {
+		if n > MaxEigenvalueSites {
+			return nil, &fault.Error{Kind: fault.TooLarge, Field: "spectrum",
+				Msg: fmt.Sprintf("all eigenvalues of a %d-site graph need a dense %d×%d diagonalisation (about %d bytes); the limit is %d sites: use \"dos\" with method \"kpm\"",
+					n, n, n, int64(16)*int64(n)*int64(n), MaxEigenvalueSites)}
+		}
+		if values, err = spectra.Eigenvalues(g, j.Hopping); err != nil {
+			return nil, fault.Prefix("spectrum", err)
+		}
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	if s.Eigenvalues {
+		resp.Eigenvalues = values
+	}
+	if d := s.DOS; d != nil {
+		var dos spectra.DOS
+		if d.Method == "exact" {
+			dos, err = spectra.Histogram(values, d.Bins)
+		} else {
+			dos, err = spectra.KPM(g.Hamiltonian(j.Hopping), spectra.KPMSettings{
+				Moments: d.Moments, Vectors: d.Vectors, Seed: d.Seed, Bins: d.Bins})
+		}
+		if err != nil {
+			return nil, fault.Prefix("spectrum", err)
+		}
+		resp.DOS = &DOSResult{Energy: dos.Energy, Density: dos.Density, Method: d.Method}
+	}
+	if s.Ratio {
+		r, err := spacingRatio(values)
+		if err != nil {
+			return nil, fault.Prefix("spectrum.ratio", err)
+		}
+		resp.Ratio = r
+	}
+	if s.BoxDimension {
+		b, err := boxDimension(g.Coords(), g.Dim())
+		if err != nil {
+			return nil, fault.Prefix("spectrum.box_dimension", err)
+		}
+		resp.BoxDimension = b
+	}
+	return resp, nil
+}

@@ -1,0 +1,71 @@
+package walk
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+)
+
+// Serve runs the JSON-lines loop of the bridge: it reads one request per
+// line from r, runs it, and writes one response per line to w, in request
+// order, each carrying the request's id (also on error lines, whenever the
+// id could be read). A failing request produces an error line and the loop
+// goes on; blank lines are skipped. Progress and log messages go to log
+// (which may be nil), never to w.
+//
+// Serve returns nil at the end of input, the read or write error when r or
+// w fails, and ctx.Err() when ctx is cancelled (after answering the request
+// in flight with a "cancelled" error line).
+func Serve(ctx context.Context, r io.Reader, w io.Writer, log io.Writer) error {
+	if log == nil {
+		log = io.Discard
+	}
+	br := bufio.NewReaderSize(r, 1<<16)
+	for line := 1; ; line++ {
+		if err := ctx.Err(); err != nil {
+			return err
+		}
+		text, rerr := br.ReadBytes('\n')
+		if rerr != nil && !errors.Is(rerr, io.EOF) {
+			return fmt.Errorf("walk: reading request line %d: %w", line, rerr)
+		}
+		if len(bytes.TrimSpace(text)) > 0 {
+			resp := serveLine(ctx, text, log, line)
+			out, err := json.Marshal(resp)
+			if err != nil {
+				out, _ = json.Marshal(&Response{ID: resp.ID, Error: &ErrorBody{Code: "numerical",
+					Message: "the response could not be encoded: " + err.Error()}})
+			}
+			out = append(out, '\n')
+			if _, err := w.Write(out); err != nil {
+				return fmt.Errorf("walk: writing response %d: %w", line, err)
+			}
+		}
+		if rerr != nil { // io.EOF
+			return nil
+		}
+	}
+}
+
+// serveLine decodes and runs one request; it never panics.
+func serveLine(ctx context.Context, text []byte, log io.Writer, line int) (resp *Response) {
+	job, err := Decode(text)
+	id := ""
+	if job != nil {
+		id = job.ID
+	}
+	if err != nil {
+		fmt.Fprintf(log, "ampwalk: line %d (id %q): %v\n", line, id, err)
+		return &Response{ID: id, Error: errorBody(err)}
+	}
+	resp, err = job.Run(ctx, log)
+	if err != nil {
+		fmt.Fprintf(log, "ampwalk: line %d (id %q): %v\n", line, id, err)
+		return &Response{ID: id, Error: errorBody(err)}
+	}
+	return resp
+}
