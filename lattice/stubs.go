@@ -12,18 +12,6 @@ import (
 
 var errTODO = errors.New("lattice: not implemented yet")
 
-// CarpetVariant selects how a Sierpinski carpet becomes a graph.
-type CarpetVariant int
-
-const (
-	// CarpetCells puts a site at the centre of every kept cell and bonds
-	// edge-sharing kept cells: 8^g sites.
-	CarpetCells CarpetVariant = iota
-	// CarpetCorners puts a site at every corner of a kept cell and bonds
-	// along kept cell edges.
-	CarpetCorners
-)
-
 // Law is the distribution of a random perturbation.
 type Law int
 
@@ -42,23 +30,16 @@ type Disorder struct {
 	Law          Law
 }
 
-func Chain(n int, periodic bool) (*Graph, error)              { return nil, errTODO }
-func Square(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
-func Triangle(side int) (*Graph, error)                       { return nil, errTODO }
-func TriangularPatch(w, h int, periodic bool) (*Graph, error) { return nil, errTODO }
-func Honeycomb(w, h int, periodic bool) (*Graph, error)       { return nil, errTODO }
-func Kagome(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
-func Lieb(w, h int, periodic bool) (*Graph, error)            { return nil, errTODO }
-func Cubic(w, h, d int, periodic bool) (*Graph, error)        { return nil, errTODO }
-func Hypercube(d int) (*Graph, error)                         { return nil, errTODO }
-func Complete(n int) (*Graph, error)                          { return nil, errTODO }
-func Star(leaves int) (*Graph, error)                         { return nil, errTODO }
-func CayleyTree(z, shells int) (*Graph, error)                { return nil, errTODO }
-func Gasket(g int) (*Graph, error)                            { return nil, errTODO }
-func Carpet(g int, v CarpetVariant) (*Graph, error)           { return nil, errTODO }
-func Vicsek(g int) (*Graph, error)                            { return nil, errTODO }
-func TFractal(g int) (*Graph, error)                          { return nil, errTODO }
-func Fibonacci(n int, weak, strong float64) (*Graph, error)   { return nil, errTODO }
+func Honeycomb(w, h int, periodic bool) (*Graph, error)     { return nil, errTODO }
+func Kagome(w, h int, periodic bool) (*Graph, error)        { return nil, errTODO }
+func Lieb(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
+func Cubic(w, h, d int, periodic bool) (*Graph, error)      { return nil, errTODO }
+func Complete(n int) (*Graph, error)                        { return nil, errTODO }
+func Star(leaves int) (*Graph, error)                       { return nil, errTODO }
+func CayleyTree(z, shells int) (*Graph, error)              { return nil, errTODO }
+func Vicsek(g int) (*Graph, error)                          { return nil, errTODO }
+func TFractal(g int) (*Graph, error)                        { return nil, errTODO }
+func Fibonacci(n int, weak, strong float64) (*Graph, error) { return nil, errTODO }
 func Harper(n int, lambda, beta, phase float64) (*Graph, error) {
 	return nil, errTODO
 }

@@ -1,0 +1,126 @@
+package lattice
+
+import (
+	"math"
+	"testing"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+func TestGasketCounts(t *testing.T) {
+	top := 9
+	if testing.Short() {
+		top = 6
+	}
+	for g := 0; g <= top; g++ {
+		gr, err := Gasket(g)
+		require.NoError(t, err)
+		// (3^(g+1)+3)/2 sites, 3^(g+1) bonds, degree 4 except three corners of
+		// degree 2 (job-format contract; references.md [derived]).
+		p := ipow(3, g+1)
+		require.Equal(t, (p+3)/2, gr.Len())
+		require.Equal(t, p, gr.NumBonds())
+		c, err := GasketCorners(g)
+		require.NoError(t, err)
+		deg := degrees(gr)
+		for i, d := range deg {
+			if i == c[0] || i == c[1] || i == c[2] {
+				require.Equal(t, 2, d, "corner %d", i)
+			} else {
+				require.Equal(t, 4, d, "site %d", i)
+			}
+		}
+		// Corners at (0,0), (2^g,0), (2^(g−1), 2^(g−1)√3): job-format contract.
+		s := float64(ipow(2, g))
+		assert.InDeltaSlice(t, []float64{0, 0}, gr.Pos(nil, c[0]), 1e-9)
+		assert.InDeltaSlice(t, []float64{s, 0}, gr.Pos(nil, c[1]), 1e-9)
+		assert.InDeltaSlice(t, []float64{s / 2, s / 2 * math.Sqrt(3)}, gr.Pos(nil, c[2]), 1e-9)
+		lo, hi := bondLengths(gr)
+		assert.InDelta(t, 1, lo, 1e-9)
+		assert.InDelta(t, 1, hi, 1e-9)
+		if g <= 6 {
+			requireValid(t, gr)
+			requireDistinctPositions(t, gr)
+		}
+	}
+}
+
+// requireDistinctPositions checks that no two sites share a position.
+func requireDistinctPositions(t *testing.T, g *Graph) {
+	t.Helper()
+	seen := make(map[[2]int64]int, g.Len())
+	var p []float64
+	for i := 0; i < g.Len(); i++ {
+		p = g.Pos(p, i)
+		k := [2]int64{int64(math.Round(p[0] * 1e6)), int64(math.Round(p[1] * 1e6))}
+		j, dup := seen[k]
+		require.False(t, dup, "sites %d and %d both at %v", j, i, p)
+		seen[k] = i
+	}
+}
+
+func TestGasketOrder(t *testing.T) {
+	// The recursive order documented on Gasket: generation 1 by hand.
+	g, err := Gasket(1)
+	require.NoError(t, err)
+	h := math.Sqrt(3) / 2
+	want := []float64{0, 0, 1, 0, 0.5, h, 2, 0, 1.5, h, 1, 2 * h}
+	assert.InDeltaSlice(t, want, g.Coords(), 1e-12)
+	c, err := GasketCorners(1)
+	require.NoError(t, err)
+	assert.Equal(t, [3]int{0, 3, 5}, c)
+	// Generation g is a prefix of generation g+1 (sites and bonds).
+	small, err := Gasket(3)
+	require.NoError(t, err)
+	big, err := Gasket(4)
+	require.NoError(t, err)
+	assert.Equal(t, small.Coords(), big.Coords()[:len(small.Coords())])
+	for k := 0; k < small.NumBonds(); k++ {
+		assert.Equal(t, small.Bond(k), big.Bond(k))
+	}
+}
+
+func TestGasketSpectrumG1(t *testing.T) {
+	// Spectral decimation, normalised Laplacian 4(I − D⁻¹A) of generation 1:
+	// {0:1, 3:2, 6:3} (references.md; Fukushima & Shima, Potential Anal. 1, 1
+	// (1992), from memory). With degrees 2 and 4 D⁻¹A is similar to the
+	// symmetric D^(−1/2) A D^(−1/2), whose eigenvalues are 1 − μ/4.
+	g, err := Gasket(1)
+	require.NoError(t, err)
+	deg := degrees(g)
+	bonds := make([]Bond, g.NumBonds())
+	for k := range bonds {
+		b := g.Bond(k)
+		b.W = 1 / math.Sqrt(float64(deg[b.I]*deg[b.J]))
+		bonds[k] = b
+	}
+	sym, err := New(g.Len(), 2, g.Coords(), bonds, nil)
+	require.NoError(t, err)
+	v := eigenvalues(t, sym)
+	for i := range v {
+		v[i] = 4 * (1 - v[i])
+	}
+	sortFloats(v)
+	assert.InDeltaSlice(t, []float64{0, 3, 3, 6, 6, 6}, v, 1e-12)
+}
+
+func TestGasketErrors(t *testing.T) {
+	for _, g := range []int{-2, -1, MaxGasketGeneration + 1, 40} {
+		_, err := Gasket(g)
+		requireInputError(t, err, fault.Invalid, "generation")
+		assert.Contains(t, err.Error(), "between 0 and 16")
+		_, err = GasketCorners(g)
+		requireInputError(t, err, fault.Invalid, "generation")
+	}
+}
+
+func BenchmarkGasket12(b *testing.B) {
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Gasket(12); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
