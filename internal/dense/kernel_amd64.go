@@ -1,0 +1,39 @@
+package dense
+
+//go:noescape
+func kern6x8avx(k int, a, b, c *float64, ldc int)
+
+func cpuid(eaxArg, ecxArg uint32) (eax, ebx, ecx, edx uint32)
+func xgetbv() (eax, edx uint32)
+
+// hasAVX2FMA reports whether the CPU and the operating system support AVX2
+// and FMA3 (CPUID leaf 1 ECX bits 12, 27, 28; XCR0 bits 1–2; leaf 7 EBX bit 5).
+var hasAVX2FMA = func() bool {
+	maxID, _, _, _ := cpuid(0, 0)
+	if maxID < 7 {
+		return false
+	}
+	_, _, c1, _ := cpuid(1, 0)
+	const fma, osxsave, avx = 1 << 12, 1 << 27, 1 << 28
+	if c1&fma == 0 || c1&osxsave == 0 || c1&avx == 0 {
+		return false
+	}
+	if xa, _ := xgetbv(); xa&6 != 6 {
+		return false
+	}
+	_, b7, _, _ := cpuid(7, 0)
+	return b7&(1<<5) != 0
+}()
+
+// kern6x8 is C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[8p:8p+8] for C row-major
+// with stride ldc; len(a) ≥ 6k, len(b) ≥ 8k, len(c) ≥ 5·ldc + 8.
+func kern6x8(k int, a, b, c []float64, ldc int) {
+	if hasAVX2FMA && k > 0 {
+		_ = a[6*k-1]
+		_ = b[8*k-1]
+		_ = c[5*ldc+7]
+		kern6x8avx(k, &a[0], &b[0], &c[0], ldc)
+		return
+	}
+	kern6x8go(k, a, b, c, ldc)
+}

@@ -1,0 +1,5 @@
+//go:build !amd64
+
+package dense
+
+func kern6x8(k int, a, b, c []float64, ldc int) { kern6x8go(k, a, b, c, ldc) }
