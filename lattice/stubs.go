@@ -30,10 +30,6 @@ type Disorder struct {
 	Law          Law
 }
 
-func Honeycomb(w, h int, periodic bool) (*Graph, error)     { return nil, errTODO }
-func Kagome(w, h int, periodic bool) (*Graph, error)        { return nil, errTODO }
-func Lieb(w, h int, periodic bool) (*Graph, error)          { return nil, errTODO }
-func Cubic(w, h, d int, periodic bool) (*Graph, error)      { return nil, errTODO }
 func Complete(n int) (*Graph, error)                        { return nil, errTODO }
 func Star(leaves int) (*Graph, error)                       { return nil, errTODO }
 func CayleyTree(z, shells int) (*Graph, error)              { return nil, errTODO }
