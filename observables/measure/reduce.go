@@ -41,6 +41,12 @@ type Reduction struct {
 	P, PErr [][]float64
 	// HasErrors reports whether the measurement carried uncertainties.
 	HasErrors bool
+	// Fit is the regime analysis set by FitRegimes (nil before), and
+	// FitQuantity the curve it analysed ("msd" or "spread").
+	Fit         *observables.RegimeFit
+	FitQuantity string
+	// FitWeighted reports whether the fit used the propagated errors.
+	FitWeighted bool
 }
 
 // Reduce normalises every length of m and computes MSD, spread and IPR with
