@@ -88,13 +88,4 @@ func requireInputError(t *testing.T, err error, kind fault.Kind, field string) {
 	require.NotEmpty(t, e.Msg)
 }
 
-// ipow returns b^e for small non-negative integers.
-func ipow(b, e int) int {
-	r := 1
-	for range e {
-		r *= b
-	}
-	return r
-}
-
 func sortFloats(v []float64) { sort.Float64s(v) }

@@ -30,11 +30,6 @@ type Disorder struct {
 	Law          Law
 }
 
-func Complete(n int) (*Graph, error)                        { return nil, errTODO }
-func Star(leaves int) (*Graph, error)                       { return nil, errTODO }
-func CayleyTree(z, shells int) (*Graph, error)              { return nil, errTODO }
-func Vicsek(g int) (*Graph, error)                          { return nil, errTODO }
-func TFractal(g int) (*Graph, error)                        { return nil, errTODO }
 func Fibonacci(n int, weak, strong float64) (*Graph, error) { return nil, errTODO }
 func Harper(n int, lambda, beta, phase float64) (*Graph, error) {
 	return nil, errTODO
