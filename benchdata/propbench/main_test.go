@@ -5,8 +5,10 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
+	"github.com/ampwalk/ampwalk/walk"
 	"github.com/stretchr/testify/require"
 	"gonum.org/v1/gonum/mat"
 )
@@ -103,4 +105,35 @@ func TestSquareBuild(t *testing.T) {
 	require.Equal(t, 2+5*2, s) // site x + w·y at the centre (2, 2)
 	_, _, err = build(config{Lattice: "carpet"})
 	require.Error(t, err)
+}
+
+// TestJobsFileDecodes checks that benchdata/jobs.jsonl, the benchmark jobs
+// in the JSON bridge's format (../shared/spec/job-format.md), decodes
+// strictly and matches the job propbench runs for the same benchmark.
+func TestJobsFileDecodes(t *testing.T) {
+	b, err := os.ReadFile("../jobs.jsonl")
+	require.NoError(t, err)
+	want := map[string]config{
+		"bench-gasket10":   {Lattice: "gasket", Generation: 10, TMin: 0.1, TMax: 500, Count: 60},
+		"bench-gasket12":   {Lattice: "gasket", Generation: 12, TMin: 0.1, TMax: 100, Count: 30},
+		"bench-square1000": {Lattice: "square", Width: 1000, TMin: 1, TMax: 1000, Count: 20},
+		"bench-gasket14":   {Lattice: "gasket", Generation: 14, TMin: 0.1, TMax: 200, Count: 20},
+	}
+	seen := 0
+	for _, line := range strings.Split(strings.TrimSpace(string(b)), "\n") {
+		j, err := walk.Decode([]byte(line))
+		require.NoError(t, err, line)
+		c, ok := want[j.ID]
+		require.True(t, ok, j.ID)
+		seen++
+		require.Equal(t, walk.Chebyshev, j.Method, j.ID)
+		require.Equal(t, 1e-10, j.Tolerance, j.ID)
+		require.Len(t, j.Times, c.Count, j.ID)
+		ts, err := reportedTimes(c.TMin, c.TMax, c.Count, "log")
+		require.NoError(t, err)
+		for k := range ts {
+			require.InDelta(t, ts[k], j.Times[k], 1e-12*ts[k], "%s t[%d]", j.ID, k)
+		}
+	}
+	require.Equal(t, len(want), seen)
 }
