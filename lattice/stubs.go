@@ -30,11 +30,6 @@ type Disorder struct {
 	Law          Law
 }
 
-func Fibonacci(n int, weak, strong float64) (*Graph, error) { return nil, errTODO }
-func Harper(n int, lambda, beta, phase float64) (*Graph, error) {
-	return nil, errTODO
-}
-
 func (g *Graph) ScaleHopping(s float64) (*Graph, error) { return nil, errTODO }
 func (g *Graph) Remove(sites []int) (h *Graph, kept []int, err error) {
 	return nil, nil, errTODO
