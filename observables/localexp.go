@@ -1,0 +1,146 @@
+package observables
+
+import (
+	"math"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+)
+
+// LocalExponent sets dst[i] to the smoothed local exponent d ln y / d ln t at
+// times[i] and returns dst (nil allocates). The derivative is that of a
+// least-squares polynomial of degree order (0 means 2) fitted to
+// (ln t, ln y) over the 2·half+1 nearest points by index (half 0 means 3),
+// shifted inwards at the ends so that every window holds the same number of
+// points: a Savitzky–Golay derivative filter, Savitzky & Golay, Anal. Chem.
+// 36, 1627 (1964), written for arbitrary spacing (on log-uniform times it is
+// exactly their filter). With fewer points than the window the window
+// shrinks to all points and the degree to at most one less than their
+// number; two points give the secant slope and one point 0.
+//
+// times must be positive, finite and strictly increasing and values positive
+// and finite; otherwise an *InputError names the first offending index.
+func LocalExponent(dst, times, values []float64, half, order int) ([]float64, error) {
+	if err := checkSeries(times, values, nil); err != nil {
+		return nil, err
+	}
+	if half < 0 {
+		return nil, fault.Range("smooth", "a non-negative number of points", half)
+	}
+	if order < 0 || order > 6 {
+		return nil, fault.Range("order", "between 0 (default 2) and 6", order)
+	}
+	n := len(times)
+	if dst == nil {
+		dst = make([]float64, n)
+	}
+	if len(dst) != n {
+		panicf("LocalExponent: len(dst) = %d, want %d", len(dst), n)
+	}
+	localExponent(dst, times, values, half, order)
+	return dst, nil
+}
+
+// localExponent is LocalExponent without validation.
+func localExponent(dst, times, values []float64, half, order int) {
+	if half == 0 {
+		half = 3
+	}
+	if order == 0 {
+		order = 2
+	}
+	n := len(times)
+	if n == 1 {
+		dst[0] = 0
+		return
+	}
+	w := 2*half + 1
+	if w > n {
+		w = n
+	}
+	if order > w-1 {
+		order = w - 1
+	}
+	if order < 1 {
+		order = 1
+	}
+	p := order + 1
+	var a [7 * 7]float64
+	var b [7]float64
+	for i := range n {
+		lo := i - w/2
+		if lo < 0 {
+			lo = 0
+		}
+		if lo+w > n {
+			lo = n - w
+		}
+		x0 := math.Log(times[i])
+		// Scale u so that the normal equations stay well conditioned.
+		scale := math.Max(math.Abs(math.Log(times[lo+w-1])-x0), math.Abs(math.Log(times[lo])-x0))
+		for k := range a[:p*p] {
+			a[k] = 0
+		}
+		for k := range b[:p] {
+			b[k] = 0
+		}
+		for j := lo; j < lo+w; j++ {
+			u := (math.Log(times[j]) - x0) / scale
+			y := math.Log(values[j])
+			var pw [13]float64
+			pw[0] = 1
+			for k := 1; k < 2*p-1; k++ {
+				pw[k] = pw[k-1] * u
+			}
+			for r := range p {
+				b[r] += pw[r] * y
+				for c := range p {
+					a[r*p+c] += pw[r+c]
+				}
+			}
+		}
+		sol := solveSmall(a[:p*p], b[:p], p)
+		dst[i] = sol[1] / scale
+	}
+}
+
+// solveSmall solves the p×p system a·x = b in place by Gaussian elimination
+// with partial pivoting and returns x (stored in b). A singular system
+// (impossible for distinct abscissae) leaves zeros in the affected unknowns.
+func solveSmall(a, b []float64, p int) []float64 {
+	for col := range p {
+		piv := col
+		for r := col + 1; r < p; r++ {
+			if math.Abs(a[r*p+col]) > math.Abs(a[piv*p+col]) {
+				piv = r
+			}
+		}
+		if a[piv*p+col] == 0 {
+			continue
+		}
+		if piv != col {
+			for c := range p {
+				a[col*p+c], a[piv*p+c] = a[piv*p+c], a[col*p+c]
+			}
+			b[col], b[piv] = b[piv], b[col]
+		}
+		for r := col + 1; r < p; r++ {
+			f := a[r*p+col] / a[col*p+col]
+			for c := col; c < p; c++ {
+				a[r*p+c] -= f * a[col*p+c]
+			}
+			b[r] -= f * b[col]
+		}
+	}
+	for r := p - 1; r >= 0; r-- {
+		if a[r*p+r] == 0 {
+			b[r] = 0
+			continue
+		}
+		s := b[r]
+		for c := r + 1; c < p; c++ {
+			s -= a[r*p+c] * b[c]
+		}
+		b[r] = s / a[r*p+r]
+	}
+	return b
+}

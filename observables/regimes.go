@@ -1,0 +1,507 @@
+package observables
+
+import (
+	"math"
+	"math/rand/v2"
+	"sort"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+)
+
+// Regime labels: each is a statement about the exponent α of a mean squared
+// displacement growing as t^α. The thresholds are chosen here (common
+// practice leaves them open) and apply to the fitted exponent, not to its
+// interval:
+//
+//	α ≤ −0.1          decreasing
+//	|α| < 0.1         saturated
+//	0.1 ≤ α < 0.9     sub-diffusive
+//	0.9 ≤ α ≤ 1.1     diffusive
+//	1.1 < α < 1.8     super-diffusive
+//	1.8 ≤ α ≤ 2.2     ballistic
+//	α > 2.2           super-ballistic (a transient, e.g. injection at a corner)
+//
+// For other quantities (the spread, a measured intensity width) the labels
+// keep the same thresholds; they then describe the exponent only.
+const (
+	KindDecreasing     = "decreasing"
+	KindSaturated      = "saturated"
+	KindSubDiffusive   = "sub-diffusive"
+	KindDiffusive      = "diffusive"
+	KindSuperDiffusive = "super-diffusive"
+	KindBallistic      = "ballistic"
+	KindSuperBallistic = "super-ballistic"
+)
+
+// Classify returns the label of an MSD exponent α (see the Kind constants).
+func Classify(alpha float64) string {
+	switch {
+	case alpha <= -0.1:
+		return KindDecreasing
+	case alpha < 0.1:
+		return KindSaturated
+	case alpha < 0.9:
+		return KindSubDiffusive
+	case alpha <= 1.1:
+		return KindDiffusive
+	case alpha < 1.8:
+		return KindSuperDiffusive
+	case alpha <= 2.2:
+		return KindBallistic
+	default:
+		return KindSuperBallistic
+	}
+}
+
+// RegimeSettings configures FitRegimes. The zero value asks for the
+// defaults given field by field.
+type RegimeSettings struct {
+	// MaxSegments is the largest number of power-law segments tried, 1…8;
+	// 0 means 4. Fewer are tried when the window holds too few points for
+	// MinPoints per segment (RegimeFit.Tried says how many).
+	MaxSegments int
+	// From and To bound the fit window in time, inclusive; 0 means the first
+	// (last) time of the series.
+	From, To float64
+	// MinPoints is the least number of points per segment, ≥ 3; 0 means 4.
+	MinPoints int
+	// Replicates is the number of bootstrap replicates for the crossover
+	// intervals; 0 means 200. A negative value skips the bootstrap and gives
+	// Wald intervals from the fit covariance instead.
+	Replicates int
+	// Seed fixes the bootstrap's random stream (PCG(Seed, 0x5e9)).
+	Seed uint64
+	// Smooth is the half-width in points of the Savitzky–Golay window of the
+	// local exponent (0 means 3: seven points) and Order its polynomial
+	// degree (0 means 2).
+	Smooth, Order int
+}
+
+// Regime is one power-law segment y ≈ Prefactor · t^Exponent on [From, To].
+type Regime struct {
+	From, To  float64
+	Exponent  float64
+	Error     float64 // one standard error of Exponent
+	Prefactor float64
+	Kind      string
+}
+
+// Crossover is a breakpoint between consecutive regimes with its 95%
+// interval [Low, High].
+type Crossover struct {
+	Time, Low, High float64
+}
+
+// Saturation describes a plateau at the end of the series: from Time on the
+// smoothed local exponent stays below 0.1 in magnitude, and Level is the
+// mean of the values there.
+type Saturation struct {
+	Time, Level float64
+}
+
+// RegimeFit is the result of FitRegimes.
+type RegimeFit struct {
+	// Times are the times inside the window, LocalExponent the smoothed
+	// d ln y / d ln t at each of them.
+	Times         []float64
+	LocalExponent []float64
+	// Regimes in time order and the Crossovers between them.
+	Regimes    []Regime
+	Crossovers []Crossover
+	// Segments is the number of segments chosen, Tried the largest number
+	// tried, Scores the criterion for 1…Tried segments, Criterion its name.
+	Segments  int
+	Tried     int
+	Scores    []float64
+	Criterion string
+	// Interval says how the crossover intervals were obtained:
+	// "bootstrap-residual", "bootstrap-parametric" or "wald"; Replicates is the
+	// number of bootstrap fits used.
+	Interval   string
+	Replicates int
+	// Residual is the (weighted) residual sum of squares of ln y of the
+	// chosen fit and DoF its degrees of freedom (points − 2·Segments).
+	Residual float64
+	DoF      int
+	// Saturation is non-nil when the series ends on a plateau.
+	Saturation *Saturation
+}
+
+// rssFloor is a relative noise floor (in ln y) added to the unweighted
+// residual sum of squares so that exact or nearly exact curves do not
+// over-segment on round-off.
+const rssFloor = 1e-9
+
+// FitRegimes analyses a positive series y(t) as a sequence of power laws.
+//
+// Within the window [From, To] it computes the smoothed local exponent
+// (LocalExponent) and fits ln y against ln t with continuous broken lines of
+// 1…MaxSegments segments. The breakpoints of each are optimised by an
+// exhaustive grid search followed by coordinate-wise golden-section
+// refinement (in the spirit of segmented regression with unknown
+// breakpoints, Muggeo, Stat. Med. 22, 3055 (2003), but with a grid instead of
+// his linearisation, which is less sensitive to the start), and the number of
+// segments is chosen by the Bayesian information criterion (Schwarz, Ann.
+// Stat. 6, 461 (1978)) with 2·m parameters for m segments (m + 1 line
+// coefficients and m − 1 breakpoints):
+//
+//	with errors:    BIC = χ² + 2m ln n,  χ² = Σ ((ln y − η)/σ)², σ = σ_y/y
+//	without errors: BIC = n ln(RSS/n + 10⁻¹⁸) + 2m ln n
+//
+// (the small constant is a relative noise floor of 10⁻⁹ in y that keeps
+// exact curves from over-segmenting on round-off).
+//
+// Exponent errors come from the covariance of the full (line and
+// breakpoint) least-squares problem at the optimum, s²(JᵀJ)⁻¹ with J the
+// Jacobian; s² = 1 when errors are given (they are taken as absolute) and
+// the residual variance RSS/(n − 2m) otherwise.
+//
+// Crossover intervals are 95% percentile bootstrap intervals (Efron &
+// Tibshirani, An Introduction to the Bootstrap (1993), ch. 13) with the
+// number of segments held fixed: a parametric bootstrap (Gaussian noise with
+// the given σ added to the fitted curve in ln y) when errors are given, a
+// residual bootstrap (fitted curve plus residuals resampled with
+// replacement, inflated by √(n/(n − 2m))) otherwise. Each replicate refines
+// the breakpoints from the original fit. The random stream is
+// PCG(Seed, 0x5e9), so a given seed gives the same result every time. With
+// Replicates < 0 the intervals are Wald intervals ψ ± 1.96 σ_ψ in ln t.
+//
+// Validation: times positive, finite and strictly increasing; values
+// positive and finite; errors (nil or one per value) positive and finite;
+// MaxSegments in [0, 8]; at least MinPoints points in the window. Failures
+// return an *InputError naming "times", "values", "errors", "fit.segments",
+// "fit.from", "fit.to", "fit.min_points" or "fit.replicates" and the first
+// offending index. The result never holds NaN.
+func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, error) {
+	if err := checkSeries(times, values, errors); err != nil {
+		return nil, err
+	}
+	if s.MaxSegments < 0 || s.MaxSegments > 8 {
+		return nil, fault.Range("fit.segments", "between 1 and 8 (0 means 4)", s.MaxSegments)
+	}
+	if s.MaxSegments == 0 {
+		s.MaxSegments = 4
+	}
+	if s.MinPoints != 0 && s.MinPoints < 3 {
+		return nil, fault.Range("fit.min_points", "at least 3 (0 means 4)", s.MinPoints)
+	}
+	if s.MinPoints == 0 {
+		s.MinPoints = 4
+	}
+	if !finite(s.From) || s.From < 0 {
+		return nil, fault.Range("fit.from", "a non-negative finite time (0 means the first time)", s.From)
+	}
+	if !finite(s.To) || s.To < 0 {
+		return nil, fault.Range("fit.to", "a non-negative finite time (0 means the last time)", s.To)
+	}
+	if s.To != 0 && s.To < s.From {
+		return nil, fault.New("fit.to", "must be at least fit.from = %v; got %v", s.From, s.To)
+	}
+	if s.Replicates > 100000 {
+		return nil, fault.Range("fit.replicates", "at most 100000", s.Replicates)
+	}
+	if s.Replicates == 0 {
+		s.Replicates = 200
+	}
+	if s.Smooth < 0 {
+		return nil, fault.Range("fit.smooth", "a non-negative number of points", s.Smooth)
+	}
+	if s.Order < 0 || s.Order > 6 {
+		return nil, fault.Range("fit.order", "between 0 (default 2) and 6", s.Order)
+	}
+
+	// The window.
+	lo := sort.Search(len(times), func(i int) bool { return times[i] >= s.From })
+	hi := len(times)
+	if s.To != 0 {
+		hi = sort.Search(len(times), func(i int) bool { return times[i] > s.To })
+	}
+	n := hi - lo
+	if n < s.MinPoints {
+		return nil, fault.New("times", "the fit window [%v, %v] must hold at least %d points (fit.min_points); got %d",
+			s.From, s.To, s.MinPoints, n)
+	}
+	t := times[lo:hi]
+	v := values[lo:hi]
+	x := make([]float64, n)
+	y := make([]float64, n)
+	for i := range n {
+		x[i] = math.Log(t[i])
+		y[i] = math.Log(v[i])
+	}
+	var sw []float64
+	if errors != nil {
+		sw = make([]float64, n)
+		for i := range n {
+			sw[i] = v[i] / errors[lo+i] // 1/σ of ln y
+		}
+	}
+
+	res := &RegimeFit{Times: append([]float64(nil), t...), Criterion: "BIC"}
+	res.LocalExponent = make([]float64, n)
+	localExponent(res.LocalExponent, t, v, s.Smooth, s.Order)
+
+	bl := newBrokenLine(x, sw, s.MinPoints, s.MaxSegments-1)
+	maxK := min(s.MaxSegments-1, bl.maxBreaks())
+	res.Tried = maxK + 1
+	var bestPsi []float64
+	bestScore := math.Inf(1)
+	bestRSS := 0.0
+	ln := math.Log(float64(n))
+	for k := 0; k <= maxK; k++ {
+		psi, rss, ok := bl.search(k, y)
+		if !ok {
+			res.Tried = k
+			break
+		}
+		m := k + 1
+		var score float64
+		if sw != nil {
+			score = rss + float64(2*m)*ln
+		} else {
+			score = float64(n)*math.Log(rss/float64(n)+rssFloor*rssFloor) + float64(2*m)*ln
+		}
+		res.Scores = append(res.Scores, score)
+		if score < bestScore {
+			bestScore, bestPsi, bestRSS = score, psi, rss
+		}
+	}
+	k := len(bestPsi)
+	m := k + 1
+	res.Segments = m
+	res.Residual = bestRSS
+	res.DoF = n - 2*m
+
+	// Coefficients and covariance at the optimum.
+	bl.fit(bestPsi, y)
+	beta := append([]float64(nil), bl.beta[:k+2]...)
+	s2 := 1.0
+	if sw == nil {
+		if res.DoF > 0 {
+			s2 = bestRSS / float64(res.DoF)
+		} else {
+			s2 = 0
+		}
+	}
+	cov, psiSE := segmentCovariance(x, sw, bestPsi, beta, s2)
+
+	// Regimes.
+	bounds := make([]float64, 0, k+2)
+	bounds = append(bounds, x[0])
+	bounds = append(bounds, bestPsi...)
+	bounds = append(bounds, x[n-1])
+	slope := beta[1]
+	for seg := range m {
+		if seg > 0 {
+			slope += beta[seg+1]
+		}
+		// Variance of b₁ + c₁ + … + c_seg.
+		var vs float64
+		for i := 1; i <= seg+1; i++ {
+			for j := 1; j <= seg+1; j++ {
+				vs += cov[i*len(beta)+j]
+			}
+		}
+		// Intercept: η at the segment start minus slope·x.
+		x0 := bounds[seg]
+		eta := beta[0] + beta[1]*x0
+		for j := range k {
+			if x0 > bestPsi[j] {
+				eta += beta[j+2] * (x0 - bestPsi[j])
+			}
+		}
+		res.Regimes = append(res.Regimes, Regime{
+			From:      math.Exp(bounds[seg]),
+			To:        math.Exp(bounds[seg+1]),
+			Exponent:  slope,
+			Error:     math.Sqrt(math.Max(vs, 0)),
+			Prefactor: math.Exp(eta - slope*x0),
+			Kind:      Classify(slope),
+		})
+	}
+	// Exact endpoints of the window, not exp(log(t)).
+	res.Regimes[0].From = t[0]
+	res.Regimes[m-1].To = t[n-1]
+
+	// Crossover intervals.
+	res.Crossovers = make([]Crossover, k)
+	for j, p := range bestPsi {
+		res.Crossovers[j].Time = math.Exp(p)
+	}
+	if k > 0 {
+		if s.Replicates > 0 {
+			res.Replicates = s.Replicates
+			res.Interval = bootstrapIntervals(bl, y, sw, bestPsi, res.Crossovers, s, res.DoF)
+		} else {
+			res.Interval = "wald"
+			for j, p := range bestPsi {
+				lo, hi := bl.bracket(bestPsi, j)
+				se := psiSE[j]
+				l, h := lo, hi
+				if se > 0 && finite(se) {
+					l, h = math.Max(p-1.96*se, lo), math.Min(p+1.96*se, hi)
+				}
+				res.Crossovers[j].Low, res.Crossovers[j].High = math.Exp(l), math.Exp(h)
+			}
+		}
+	}
+	res.Saturation = saturation(t, v, res.LocalExponent)
+	return res, nil
+}
+
+// segmentCovariance returns s²(JᵀJ)⁻¹ restricted to the line coefficients
+// (row-major, (K+2)×(K+2)) and the standard errors of the breakpoints, from
+// the Jacobian of η with respect to (b₀, b₁, c₁…c_K, ψ₁…ψ_K):
+// ∂η/∂ψ_k = −c_k·1(x > ψ_k). When the full problem is singular (a kink of
+// zero angle) the breakpoints are dropped and their errors reported as 0.
+func segmentCovariance(x, sw, psi, beta []float64, s2 float64) ([]float64, []float64) {
+	n, k := len(x), len(psi)
+	pl := k + 2
+	for _, full := range []bool{true, false} {
+		p := pl
+		if full {
+			p += k
+		}
+		a := make([]float64, n*p)
+		for i, xi := range x {
+			w := 1.0
+			if sw != nil {
+				w = sw[i]
+			}
+			a[i] = w
+			a[i+n] = w * xi
+			for j, s := range psi {
+				if xi > s {
+					a[i+(j+2)*n] = w * (xi - s)
+					if full {
+						a[i+(pl+j)*n] = -w * beta[j+2]
+					}
+				}
+			}
+		}
+		dummyY := make([]float64, n)
+		dummyB := make([]float64, p)
+		if _, ok := householderLS(a, n, p, dummyY, dummyB); !ok {
+			continue
+		}
+		c := make([]float64, p*p)
+		if !rInverseCov(a, n, p, c) {
+			continue
+		}
+		cov := make([]float64, pl*pl)
+		for r := range pl {
+			for cc := range pl {
+				cov[r*pl+cc] = s2 * c[r*p+cc]
+			}
+		}
+		se := make([]float64, k)
+		if full {
+			for j := range k {
+				se[j] = math.Sqrt(math.Max(s2*c[(pl+j)*p+pl+j], 0))
+			}
+		}
+		return cov, se
+	}
+	return make([]float64, pl*pl), make([]float64, k)
+}
+
+// bootstrapIntervals fills the Low and High of each crossover with 95%
+// percentile bootstrap intervals and returns the kind of bootstrap used.
+func bootstrapIntervals(bl *brokenLine, y, sw, psi []float64, cr []Crossover, s RegimeSettings, dof int) string {
+	n, k := len(y), len(psi)
+	bl.fit(psi, y)
+	// Fitted curve and (unweighted) residuals in ln y.
+	fitted := make([]float64, n)
+	beta := bl.beta[:k+2]
+	for i, x := range bl.x {
+		e := beta[0] + beta[1]*x
+		for j, p := range psi {
+			if x > p {
+				e += beta[j+2] * (x - p)
+			}
+		}
+		fitted[i] = e
+	}
+	rng := rand.New(rand.NewPCG(s.Seed, 0x5e9))
+	kind := "bootstrap-parametric"
+	var resid []float64
+	if sw == nil {
+		kind = "bootstrap-residual"
+		resid = make([]float64, n)
+		var mean float64
+		for i := range n {
+			resid[i] = y[i] - fitted[i]
+			mean += resid[i]
+		}
+		mean /= float64(n)
+		infl := 1.0
+		if dof > 0 {
+			infl = math.Sqrt(float64(n) / float64(dof))
+		}
+		for i := range resid {
+			resid[i] = (resid[i] - mean) * infl
+		}
+	}
+	ys := make([]float64, n)
+	trial := make([]float64, k)
+	draws := make([][]float64, k)
+	for j := range draws {
+		draws[j] = make([]float64, 0, s.Replicates)
+	}
+	for range s.Replicates {
+		for i := range n {
+			if sw != nil {
+				ys[i] = fitted[i] + rng.NormFloat64()/sw[i]
+			} else {
+				ys[i] = fitted[i] + resid[rng.IntN(n)]
+			}
+		}
+		copy(trial, psi)
+		bl.refine(trial, ys)
+		for j, p := range trial {
+			draws[j] = append(draws[j], p)
+		}
+	}
+	for j := range cr {
+		d := draws[j]
+		sort.Float64s(d)
+		cr[j].Low = math.Exp(quantile(d, 0.025))
+		cr[j].High = math.Exp(quantile(d, 0.975))
+		// The interval always contains the estimate itself.
+		cr[j].Low = math.Min(cr[j].Low, cr[j].Time)
+		cr[j].High = math.Max(cr[j].High, cr[j].Time)
+	}
+	return kind
+}
+
+// quantile returns the q-quantile of sorted data by linear interpolation
+// between order statistics (Hyndman & Fan, Am. Stat. 50, 361 (1996), type 7).
+func quantile(sorted []float64, q float64) float64 {
+	if len(sorted) == 1 {
+		return sorted[0]
+	}
+	h := q * float64(len(sorted)-1)
+	i := int(h)
+	if i >= len(sorted)-1 {
+		return sorted[len(sorted)-1]
+	}
+	return sorted[i] + (h-float64(i))*(sorted[i+1]-sorted[i])
+}
+
+// saturation finds the trailing run of points whose local exponent stays
+// below 0.1 in magnitude; it needs at least three such points.
+func saturation(t, v, le []float64) *Saturation {
+	n := len(t)
+	i := n
+	for i > 0 && math.Abs(le[i-1]) < 0.1 {
+		i--
+	}
+	if n-i < 3 {
+		return nil
+	}
+	var s float64
+	for _, x := range v[i:] {
+		s += x
+	}
+	return &Saturation{Time: t[i], Level: s / float64(n-i)}
+}
