@@ -44,12 +44,23 @@ const (
 // tolerance 1e-10, GOMAXPROCS workers, no progress reports, the machine's
 // memory limit.
 type Settings struct {
-	Method    Method
+	// Method selects the propagator; Auto chooses by size, time span and
+	// the number of reported times and says why in Diagnostics.Reason.
+	Method Method
+	// Tolerance is the target 2-norm error of the state at every reported
+	// time, relative to ‖ψ(0)‖; 0 means DefaultTolerance (1e-10). Accepted:
+	// 0 < Tolerance < 1.
 	Tolerance float64
-	Workers   int
-	// Progress, when set, is called with the reported times done so far.
+	// Workers bounds the goroutines of the sparse products when the
+	// operator is a *sparse.CSR (0 means GOMAXPROCS). Results are
+	// bit-for-bit reproducible for a given Workers.
+	Workers int
+	// Progress, when set, is called with the reported times done so far
+	// after each reported time.
 	Progress func(done, total int)
-	// MemoryLimit in bytes; 0 means 80% of the machine's memory.
+	// MemoryLimit in bytes; 0 means 80% of the machine's memory (or
+	// AMPWALK_MEMORY_LIMIT). A method whose EstimateBytes exceeds it is
+	// refused with a TooLarge error.
 	MemoryLimit int64
 }
 

@@ -117,10 +117,6 @@ type interval struct {
 // intervalSteps is the number of Lanczos steps used for the spectral bounds.
 const intervalSteps = 30
 
-// intervalBasisBytes caps the memory used to store the Lanczos basis of
-// spectralInterval; beyond it the basis vectors are spread over fewer steps.
-const intervalBasisBytes = 256 << 20
-
 // spectralInterval returns [lo, hi] containing the spectrum of op, from a
 // Lanczos run of up to intervalSteps steps started on a seeded random vector:
 // the extreme Ritz values θ are padded outward by their residual norms
@@ -129,35 +125,78 @@ const intervalBasisBytes = 256 << 20
 // as a margin for extreme eigenvalues that are not yet resolved. For a
 // *sparse.CSR the result is also clipped to the Gershgorin discs, which
 // always contain the spectrum. The padding errs outward: an interval that
-// misses part of the spectrum makes the Chebyshev series diverge, one that
-// is slightly too wide costs a few products.
+// misses part of the spectrum makes the Chebyshev series diverge (the
+// propagator detects that by the norm and widens), one that is slightly too
+// wide costs a few products.
+//
+// The run keeps three vectors only (no stored basis, so memory stays 3n
+// complex values at any size), with each new vector reorthogonalised against
+// the previous two. Lost orthogonality in finite precision shows up as
+// repeated copies of converged Ritz values, which leaves the extreme values
+// and their residuals valid (Paige, J. Inst. Math. Appl. 18, 341 (1976)
+// (from memory)).
 func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 	n := op.Len()
 	m := min(intervalSteps, n)
-	for m > 4 && int64(m)*int64(n)*16 > intervalBasisBytes {
-		m--
-	}
 	// The start vector: fixed seed, so the same operator gives the same
 	// interval bit for bit. Any vector with weight on every eigenvector
 	// serves; a random one has it with probability one.
 	rng := rand.New(rand.NewPCG(0x616d7077, 0x616c6b))
-	v0 := make([]complex128, n)
-	for i := range v0 {
-		v0[i] = complex(rng.Float64()-0.5, rng.Float64()-0.5)
+	v := make([]complex128, n)
+	for i := range v {
+		v[i] = complex(rng.Float64()-0.5, rng.Float64()-0.5)
 	}
-	l := newLanczos(op, m)
-	k, prods, err := l.run(ctx, v0, nrm2(v0))
-	if err != nil {
-		return interval{}, err
+	scl := complex(1/nrm2(v), 0)
+	for i := range v {
+		v[i] *= scl
+	}
+	vPrev := make([]complex128, n)
+	w := make([]complex128, n)
+	alpha := make([]float64, m)
+	beta := make([]float64, m)
+	k, prods := 0, 0
+	var scale float64
+	for j := 0; j < m; j++ {
+		if err := ctx.Err(); err != nil {
+			return interval{products: prods}, cancelled(err)
+		}
+		op.MulVec(w, v)
+		prods++
+		a := real(dot(v, w))
+		if math.IsNaN(a) || math.IsInf(a, 0) {
+			return interval{products: prods}, numerical("the operator produced a non-finite value")
+		}
+		alpha[j] = a
+		axpy(w, complex(-a, 0), v)
+		if j > 0 {
+			axpy(w, complex(-beta[j-1], 0), vPrev)
+		}
+		// Local reorthogonalisation against the last two vectors.
+		axpy(w, -dot(v, w), v)
+		if j > 0 {
+			axpy(w, -dot(vPrev, w), vPrev)
+		}
+		b := nrm2(w)
+		beta[j] = b
+		k = j + 1
+		scale = math.Max(scale, math.Max(math.Abs(a), b))
+		if b <= breakdown*scale {
+			beta[j] = 0
+			break
+		}
+		inv := complex(1/b, 0)
+		for i := range w {
+			vPrev[i], v[i] = v[i], w[i]*inv
+		}
 	}
 	theta := make([]float64, k)
 	s := make([]float64, k*k)
 	e := make([]float64, k)
 	work := make([]float64, max(2, 2*k))
-	if !tridiagEigen(l.alpha, l.beta, k, theta, s, e, work) {
-		return interval{}, numerical("the tridiagonal eigenvalue iteration for the spectral bounds did not converge")
+	if !tridiagEigen(alpha, beta, k, theta, s, e, work) {
+		return interval{products: prods}, numerical("the tridiagonal eigenvalue iteration for the spectral bounds did not converge")
 	}
-	bk := l.beta[k-1]
+	bk := beta[k-1]
 	rlo := bk * math.Abs(s[(k-1)*k+0])
 	rhi := bk * math.Abs(s[(k-1)*k+k-1])
 	lo, hi := theta[0]-rlo, theta[k-1]+rhi
@@ -172,8 +211,8 @@ func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 		lo = math.Max(lo, glo)
 		hi = math.Min(hi, ghi)
 	}
-	if !(lo <= hi) {
-		return interval{}, numerical("the spectral bounds are not finite")
+	if !(lo <= hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) {
+		return interval{products: prods}, numerical("the spectral bounds are not finite")
 	}
 	return interval{lo: lo, hi: hi, products: prods}, nil
 }

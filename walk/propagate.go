@@ -7,6 +7,7 @@ import (
 	"time"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/internal/sparse"
 )
 
 // propagator is what every method implements: advance a state by a time
@@ -34,6 +35,13 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 	n := op.Len()
 	if err := validate(n, dyn, psi0, times, &s); err != nil {
 		return d, err
+	}
+	if c, ok := op.(*sparse.CSR); ok && c.Workers != s.Workers {
+		// The caller's matrix is shared: set the worker count on a copy of
+		// its header (the arrays are not copied).
+		cp := *c
+		cp.Workers = s.Workers
+		op = &cp
 	}
 	if err := ctx.Err(); err != nil {
 		return d, cancelled(err)
@@ -213,9 +221,7 @@ func EstimateBytes(n, nnz int, m Method) int64 {
 	case Krylov:
 		return base + int64(krylovDim+1)*vec + 2*vec
 	case Chebyshev:
-		lz := int64(min(intervalSteps, max(n, 1))) * vec
-		lz = min(lz, intervalBasisBytes+vec)
-		return base + 3*vec + lz
+		return base + 3*vec
 	}
 	return EstimateBytes(n, nnz, Chebyshev)
 }
