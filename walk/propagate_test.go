@@ -289,7 +289,7 @@ func TestChebyshevWidens(t *testing.T) {
 		k := j - 50
 		want := math.Jn(k, 6)
 		var got float64
-		switch ((k%4)+4)%4 {
+		switch ((k % 4) + 4) % 4 {
 		case 0:
 			got = real(psi[j])
 		case 1:
