@@ -29,23 +29,23 @@ func SymEigen(a []float64, n int, vectors bool) (values, vecs []float64, err err
 	if err := eigCheckSym(a, n); err != nil {
 		return nil, nil, err
 	}
-	values = make([]float64, n)
-	jobz := lapack.EVNone
-	if vectors {
-		jobz = lapack.EVCompute
-	}
+	d := make([]float64, n)
+	e := make([]float64, n)
+	tau := make([]float64, n)
+	symTridiag(a, n, d, e, tau)
 	var impl gonum.Implementation
-	work := []float64{0}
-	impl.Dsyev(jobz, blas.Lower, n, a, n, values, work, -1)
-	work = make([]float64, int(work[0]))
-	if ok := impl.Dsyev(jobz, blas.Lower, n, a, n, values, work, len(work)); !ok {
-		return nil, nil, &fault.Error{Kind: fault.Numerical, Field: "matrix",
-			Msg: "the tridiagonal QR iteration did not converge"}
+	if !vectors {
+		if ok := impl.Dsterf(n, d, e); !ok {
+			return nil, nil, eigErrNoConv()
+		}
+		return d, nil, nil
 	}
-	if vectors {
-		vecs = a
+	z := make([]float64, n*n)
+	if ok := tridiagEigen(n, d, e, z, n); !ok {
+		return nil, nil, eigErrNoConv()
 	}
-	return values, vecs, nil
+	symApplyQ(a, n, tau, z, n, n)
+	return d, z, nil
 }
 
 // HermEigen returns the eigenvalues of the complex Hermitian n×n matrix a in

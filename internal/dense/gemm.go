@@ -53,9 +53,9 @@ func Gemm(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b []flo
 		var wg sync.WaitGroup
 		for j0 := 0; j0 < n; j0 += per {
 			nw := min(per, n-j0)
-			bj := b[j0*ldb:]
-			if !tB {
-				bj = b[j0:]
+			bj := b[j0:]
+			if tB {
+				bj = b[j0*ldb:]
 			}
 			wg.Go(func() { gemmSerial(tA, tB, m, nw, k, alpha, a, lda, bj, ldb, c[j0:], ldc) })
 		}
@@ -65,9 +65,9 @@ func Gemm(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b []flo
 		var wg sync.WaitGroup
 		for i0 := 0; i0 < m; i0 += per {
 			mw := min(per, m-i0)
-			ai := a[i0*lda:]
-			if tA {
-				ai = a[i0:]
+			ai := a[i0:]
+			if !tA {
+				ai = a[i0*lda:]
 			}
 			wg.Go(func() { gemmSerial(tA, tB, mw, n, k, alpha, ai, lda, b, ldb, c[i0*ldc:], ldc) })
 		}

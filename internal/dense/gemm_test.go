@@ -41,7 +41,7 @@ func TestGemmAgainstLoop(t *testing.T) {
 		return s
 	}
 	// Sizes straddle the micro-tile (6×8) and block (120×256) edges.
-	sizes := [][3]int{{1, 1, 1}, {6, 8, 1}, {7, 9, 3}, {13, 17, 300}, {130, 70, 257}, {40, 300, 60}, {250, 30, 20}, {5, 0, 3}, {3, 4, 0}}
+	sizes := [][3]int{{1, 1, 1}, {6, 8, 1}, {7, 9, 3}, {13, 17, 300}, {130, 70, 257}, {40, 300, 60}, {250, 30, 20}, {300, 290, 40}, {20, 600, 30}, {600, 20, 30}, {5, 0, 3}, {3, 4, 0}}
 	for _, s := range sizes {
 		m, n, k := s[0], s[1], s[2]
 		for _, tA := range []bool{false, true} {
@@ -108,4 +108,35 @@ func benchGemm(b *testing.B, n int) {
 		Gemm(false, false, n, n, n, 1, x, n, x, n, 0, c, n)
 	}
 	b.ReportMetric(2*float64(n)*float64(n)*float64(n)*float64(b.N)/b.Elapsed().Seconds()/1e9, "GFlop/s")
+}
+
+func TestSymvUpper(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(9, 1))
+	for _, m := range []int{1, 5, 255, 256, 700} {
+		lda := m + 3
+		a := make([]float64, m*lda)
+		for i := range a {
+			a[i] = 2*rnd.Float64() - 1
+		}
+		x := make([]float64, m)
+		for i := range x {
+			x[i] = rnd.Float64()
+		}
+		y := make([]float64, m)
+		SymvUpper(m, a, lda, x, y, make([]float64, 8*m))
+		for i := 0; i < m; i++ {
+			s := 0.0
+			for j := 0; j < m; j++ {
+				if j >= i {
+					s += a[i*lda+j] * x[j]
+				} else {
+					s += a[j*lda+i] * x[j]
+				}
+			}
+			// m ≤ 700 terms of size ≤ 1 (common practice).
+			if math.Abs(s-y[i]) > 1e-12 {
+				t.Fatalf("m=%d: y[%d]=%g want %g", m, i, y[i], s)
+			}
+		}
+	}
 }
