@@ -54,7 +54,8 @@ func (r *Reduction) reportRegimes(p func(string, ...any), lu string) {
 	if r.FitWeighted {
 		w = "weighted by the propagated uncertainties"
 	}
-	p("The %s was fitted, as a function of propagation length, by continuous broken power laws in log–log coordinates (%s); ", r.FitQuantity, w)
+	q := map[string]string{"msd": "MSD", "spread": "spread"}[r.FitQuantity]
+	p("The %s was fitted, as a function of propagation length, by continuous broken power laws in log–log coordinates (%s); ", q, w)
 	p("the number of segments (%d of up to %d tried) was chosen by the %s, exponent errors are one standard error from the fit covariance and crossover intervals are 95%% intervals (%s", f.Segments, f.Tried, f.Criterion, f.Interval)
 	if f.Replicates > 0 {
 		p(", %d replicates", f.Replicates)

@@ -64,7 +64,11 @@ func (r *Reduction) Report(w io.Writer, o ReportOptions) error {
 		s := o.Scale
 		p("\nCoupling calibration\n")
 		p("The time scale of the simulated MSD curve was fitted to the measured one by least squares (%s), ", map[bool]string{true: "weighted by the propagated uncertainties", false: "unweighted"}[s.Weighted])
-		p("giving a reference coupling of %.5g ± %.2g %s (χ² = %.3g for %d degrees of freedom).\n", s.Scale, s.Err, o.ScaleUnit, s.Chi2, s.Dof)
+		p("giving a reference coupling of %.5g ± %.2g %s (χ² = %.3g for %d degrees of freedom).", s.Scale, s.Err, o.ScaleUnit, s.Chi2, s.Dof)
+		if s.Weighted && s.Dof > 0 && s.Chi2 > 2*float64(s.Dof) {
+			p(" χ² per degree of freedom is %.3g, well above 1: the model misses systematic effects (such as fabrication disorder or next-nearest couplings that depart from the assumed law), and the quoted error, which reflects the intensity uncertainties only, understates the true uncertainty.", s.Chi2/float64(s.Dof))
+		}
+		p("\n")
 	}
 	if o.Comparison != nil {
 		model := o.Model
