@@ -114,6 +114,8 @@ func build(c config) (*lattice.Graph, int, error) {
 // at every reported time.
 func run(c config, log io.Writer) (*result, error) {
 	if c.Workers > 0 {
+		// Settings.Workers bounds the product kernels; GOMAXPROCS bounds the
+		// rest (the graph build, the reductions).
 		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(c.Workers))
 	}
 	times, err := reportedTimes(c.TMin, c.TMax, c.Count, c.Spacing)
@@ -164,7 +166,7 @@ func run(c config, log io.Writer) (*result, error) {
 	r.MSD = make([]float64, len(times))
 	t1 := time.Now()
 	d, err := walk.QuantumWalk(context.Background(), g, 1, psi0, times,
-		walk.Settings{Method: walk.Chebyshev, Tolerance: c.Tol},
+		walk.Settings{Method: walk.Chebyshev, Tolerance: c.Tol, Workers: c.Workers},
 		func(k int, t float64, psi []complex128) error {
 			var s float64
 			for i, v := range psi {
