@@ -1,8 +1,10 @@
 package lattice
 
 import (
+	"encoding/json"
 	"math"
 	"math/cmplx"
+	"os"
 	"testing"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
@@ -110,4 +112,70 @@ func TestFluxErrors(t *testing.T) {
 	require.NoError(t, err)
 	_, err = c.WithFlux(0.1)
 	requireInputError(t, err, fault.Invalid, "flux")
+}
+
+// hermitianEigenvalues returns the ascending eigenvalues of g's complex
+// Hamiltonian (γ = 1) through the real symmetric embedding
+// [[Re H, −Im H], [Im H, Re H]], whose spectrum is H's, each value twice.
+func hermitianEigenvalues(t *testing.T, g *Graph) []float64 {
+	t.Helper()
+	n := g.Len()
+	bonds := make([]Bond, 0, 4*g.NumBonds())
+	onsite := make([]float64, 2*n)
+	for i := 0; i < n; i++ {
+		onsite[i], onsite[n+i] = g.Onsite(i), g.Onsite(i)
+	}
+	for k := 0; k < g.NumBonds(); k++ {
+		b := g.Bond(k)
+		re, im := b.W*math.Cos(b.Phase), b.W*math.Sin(b.Phase) // H[I][J]
+		bonds = append(bonds,
+			Bond{I: b.I, J: b.J, W: re}, Bond{I: n + b.I, J: n + b.J, W: re},
+			// block (1,2) is −Im H: entry (I, n+J) = −Im H[I][J], and
+			// (J, n+I) = −Im H[J][I] = +Im H[I][J].
+			Bond{I: b.I, J: n + b.J, W: -im}, Bond{I: b.J, J: n + b.I, W: im})
+	}
+	e, err := New(2*n, 1, nil, bonds, onsite)
+	require.NoError(t, err)
+	v := eigenvalues(t, e)
+	out := make([]float64, n)
+	for i := range out {
+		assert.InDelta(t, v[2*i], v[2*i+1], 1e-9)
+		out[i] = v[2*i]
+	}
+	return out
+}
+
+func TestFluxSpectraReference(t *testing.T) {
+	// Spectra from numpy 1.24.2 numpy.linalg.eigvalsh in the symmetric gauge
+	// (testdata/make_flux_spectra.py): gauge invariance means they must match
+	// the Landau-gauge spectra of WithFlux. (Spectra cannot see the sign of
+	// the flux, H and its conjugate being isospectral; TestFluxPlaquettes
+	// fixes the sign.)
+	raw, err := os.ReadFile("testdata/flux_spectra.json")
+	require.NoError(t, err)
+	var ref struct {
+		Cases []struct {
+			Name        string
+			Flux        float64
+			Eigenvalues []float64
+		}
+	}
+	require.NoError(t, json.Unmarshal(raw, &ref))
+	require.Len(t, ref.Cases, 4)
+	builds := map[string]func() (*Graph, error){
+		"square 5x4": func() (*Graph, error) { return Square(5, 4, false) },
+		"square 6x6": func() (*Graph, error) { return Square(6, 6, false) },
+		"triangle 4": func() (*Graph, error) { return Triangle(4) },
+		"triangle 5": func() (*Graph, error) { return Triangle(5) },
+	}
+	for _, c := range ref.Cases {
+		g, err := builds[c.Name]()
+		require.NoError(t, err, c.Name)
+		h, err := g.WithFlux(c.Flux)
+		require.NoError(t, err)
+		got := hermitianEigenvalues(t, h)
+		assert.InDeltaSlice(t, c.Eigenvalues, got, 1e-10, c.Name)
+		// The field changes the spectrum (the check is not vacuous).
+		assert.Greater(t, math.Abs(eigenvalues(t, g)[0]-got[0]), 1e-3, c.Name)
+	}
 }
