@@ -95,6 +95,9 @@ func TestFluxHamiltonianHermitian(t *testing.T) {
 	for i := int32(0); i < int32(m.N); i++ {
 		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
 			j := m.Col[k]
+			if k > m.RowPtr[i] {
+				assert.Less(t, m.Col[k-1], j, "row %d sorted", i) // Hamiltonian's doc
+			}
 			assert.InDelta(t, 0, cmplx.Abs(at(i, j)-cmplx.Conj(at(j, i))), 1e-15)
 			assert.InDelta(t, 0, cmplx.Abs(at(i, j)-hop(g, int(i), int(j))), 1e-15)
 		}

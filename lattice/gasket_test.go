@@ -124,3 +124,14 @@ func BenchmarkGasket12(b *testing.B) {
 		}
 	}
 }
+
+func BenchmarkHamiltonianGasket12(b *testing.B) {
+	g, err := Gasket(12)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		g.Hamiltonian(1)
+	}
+}

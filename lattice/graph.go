@@ -332,7 +332,9 @@ func sortRows(m *sparse.CSR) {
 		if m.Imag != nil {
 			r.im = m.Imag[a:b]
 		}
-		if !sort.IsSorted(r) {
+		if b-a <= 32 {
+			r.insertionSort() // no interface boxing: rows of lattices are short
+		} else if !sort.IsSorted(r) {
 			sort.Sort(r)
 		}
 	}
@@ -352,5 +354,16 @@ func (r rowSorter) Swap(a, b int) {
 	}
 	if r.im != nil {
 		r.im[a], r.im[b] = r.im[b], r.im[a]
+	}
+}
+
+// insertionSort orders r by column without going through sort.Interface
+// (which allocates per row); it is for short rows. It is stable and leaves
+// sorted rows untouched.
+func (r rowSorter) insertionSort() {
+	for a := 1; a < len(r.c); a++ {
+		for b := a; b > 0 && r.c[b] < r.c[b-1]; b-- {
+			r.Swap(b, b-1)
+		}
 	}
 }
