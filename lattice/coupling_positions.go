@@ -90,20 +90,38 @@ func FromPositions(pos []float64, dim int, law CouplingLaw, cutoff float64, detu
 	if bad != nil {
 		return nil, bad
 	}
-	sort.Slice(bonds, func(a, b int) bool {
-		if bonds[a].I != bonds[b].I {
-			return bonds[a].I < bonds[b].I
+	// Pairs arrive in increasing I; order each I's partners by J.
+	for a := 0; a < len(bonds); {
+		b := a
+		for b < len(bonds) && bonds[b].I == bonds[a].I {
+			b++
 		}
-		return bonds[a].J < bonds[b].J
-	})
-	return New(n, dim, pos, bonds, detuning)
+		seg := bonds[a:b]
+		sort.Slice(seg, func(x, y int) bool { return seg[x].J < seg[y].J })
+		a = b
+	}
+	// Everything New checks holds by construction (finite positions and
+	// weights, I < J, each pair once), so skip its O(m log m) duplicate
+	// search and build the graph directly, as the builders do.
+	g := &Graph{n: n, dim: dim, pos: append([]float64(nil), pos...),
+		bi: make([]int32, len(bonds)), bj: make([]int32, len(bonds)), w: make([]float64, len(bonds))}
+	for k, b := range bonds {
+		g.bi[k], g.bj[k], g.w[k] = int32(b.I), int32(b.J), b.W
+	}
+	if detuning != nil {
+		g.onsite = append([]float64(nil), detuning...)
+	}
+	return g, nil
 }
 
 // neighbourPairs calls f(i, j, d) once for every pair i < j with Euclidean
-// distance d ≤ cutoff, in no particular order, until f returns false. It
-// bins the first min(dim, 3) coordinates into cells of side cutoff; a pair
-// within the cutoff has projected distance within it too, so it lies in the
-// same or adjacent cells.
+// distance d ≤ cutoff, until f returns false. It bins the first min(dim, 3)
+// coordinates into cells of side cutoff; a pair within the cutoff has
+// projected distance within it too, so it lies in the same or adjacent
+// cells. Sites are sorted by cell (no map), and each site looks up the 3^k
+// neighbouring cells by binary search: O(N log N) with a small constant for
+// the sort and O(N·z) for the pairs, z the sites per cell neighbourhood.
+// Pairs come in increasing i, and for each i in no particular order of j.
 func neighbourPairs(pos []float64, dim int, cutoff float64, f func(i, j int, d float64) bool) {
 	n := len(pos) / dim
 	k := min(dim, 3)
@@ -114,17 +132,35 @@ func neighbourPairs(pos []float64, dim int, cutoff float64, f func(i, j int, d f
 			origin[a] = math.Min(origin[a], pos[i*dim+a])
 		}
 	}
-	cellOf := func(i int) [3]int64 {
-		var c [3]int64
+	cell := make([][3]int64, n)
+	for i := range cell {
 		for a := 0; a < k; a++ {
-			c[a] = int64(math.Floor((pos[i*dim+a] - origin[a]) / cutoff))
+			cell[i][a] = int64(math.Floor((pos[i*dim+a] - origin[a]) / cutoff))
 		}
-		return c
 	}
-	cells := make(map[[3]int64][]int32)
-	for i := 0; i < n; i++ {
-		c := cellOf(i)
-		cells[c] = append(cells[c], int32(i))
+	less := func(x, y [3]int64) bool {
+		if x[0] != y[0] {
+			return x[0] < y[0]
+		}
+		if x[1] != y[1] {
+			return x[1] < y[1]
+		}
+		return x[2] < y[2]
+	}
+	order := make([]int32, n)
+	for i := range order {
+		order[i] = int32(i)
+	}
+	sort.Slice(order, func(a, b int) bool {
+		ca, cb := cell[order[a]], cell[order[b]]
+		if ca != cb {
+			return less(ca, cb)
+		}
+		return order[a] < order[b]
+	})
+	sorted := make([][3]int64, n)
+	for r, i := range order {
+		sorted[r] = cell[i]
 	}
 	c2 := cutoff * cutoff
 	offsets := 1
@@ -132,7 +168,7 @@ func neighbourPairs(pos []float64, dim int, cutoff float64, f func(i, j int, d f
 		offsets *= 3
 	}
 	for i := 0; i < n; i++ {
-		c := cellOf(i)
+		c := cell[i]
 		pi := pos[i*dim : (i+1)*dim]
 		for o := 0; o < offsets; o++ {
 			nc, q := c, o
@@ -140,8 +176,9 @@ func neighbourPairs(pos []float64, dim int, cutoff float64, f func(i, j int, d f
 				nc[a] += int64(q%3) - 1
 				q /= 3
 			}
-			for _, j32 := range cells[nc] {
-				j := int(j32)
+			r := sort.Search(n, func(r int) bool { return !less(sorted[r], nc) })
+			for ; r < n && sorted[r] == nc; r++ {
+				j := int(order[r])
 				if j <= i {
 					continue
 				}

@@ -88,8 +88,19 @@ func TestFromPositionsMatchesAllPairs(t *testing.T) {
 			}
 		}
 		require.Equal(t, len(want), g.NumBonds(), "trial %d", trial)
+		// FromPositions skips New's checks; New must accept its bonds.
+		bonds := make([]Bond, g.NumBonds())
+		for k := range bonds {
+			bonds[k] = g.Bond(k)
+		}
+		_, err = New(n, dim, g.Coords(), bonds, nil)
+		require.NoError(t, err)
 		for k := 0; k < g.NumBonds(); k++ {
 			b := g.Bond(k)
+			if k > 0 {
+				p := g.Bond(k - 1)
+				require.True(t, p.I < b.I || (p.I == b.I && p.J < b.J), "bonds ordered by (I, J)")
+			}
 			w, ok := want[[2]int{b.I, b.J}]
 			require.True(t, ok)
 			assert.InDelta(t, w, b.W, 1e-12*w)
