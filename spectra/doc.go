@@ -17,6 +17,43 @@
 // draw comes from math/rand/v2's PCG with an explicit seed and a stream per
 // random vector, so results do not depend on scheduling.
 //
+// # What is where
+//
+//   - dense.go: Eigenvalues, Eigensystem, LaplacianEigenvalues of a graph by
+//     dense diagonalisation (SymEigen, HermEigen in eigen.go), refused beyond
+//     MaxDense sites or the memory limit.
+//   - dos.go, kpm.go, bounds.go: densities of states — Histogram (exact),
+//     Broadened (Lorentzian, Gaussian), KPM and LocalDOS (kernel polynomial
+//     method with the Jackson kernel, Weiße et al., Rev. Mod. Phys. 78, 275
+//     (2006)), spectral Bounds from a few Lanczos steps, Counting and
+//     DOS.Integrated for integrated densities.
+//   - ratio.go: SpacingRatio (mean r̃ with degeneracies counted) and Unfold.
+//   - states.go: IPR, Participation and the energy-window map WindowMap.
+//   - box.go: BoxDimension, the box-counting dimension of a (weighted) point set.
+//   - dimension.go: spectral dimension from the integrated DOS or from a
+//     return-probability series.
+//   - bands.go, cells.go: UnitCell, Bloch Hamiltonians, Bands along k paths,
+//     Periodic finite lattices; square, triangular, honeycomb, kagome and Lieb cells.
+//   - sectors.go: Sectors of abelian symmetry groups (Translation,
+//     Reflection, SquareTranslations, PositionSymmetry).
+//
+// # Example
+//
+// The density of states of a gasket, exactly and by KPM, and its level
+// statistics:
+//
+//	g, _ := lattice.Gasket(6)                      // 1095 sites
+//	v, _ := spectra.Eigenvalues(g, 1)              // ascending, dense
+//	exact, _ := spectra.Histogram(v, 100)          // {Energy, Density}
+//	kpm, _ := spectra.KPM(g.Hamiltonian(1), spectra.KPMSettings{Moments: 512, Vectors: 10, Seed: 1, Bins: 100})
+//	r := spectra.SpacingRatio(v, 1e-9)             // r.Mean, r.Used, r.Degenerate
+//	box, _ := spectra.BoxDimension(g.Coords(), g.Dim(), nil)
+//
+// Spectra of lattices predict device behaviour only as well as the couplings
+// fed in: predicted couplings and energies must be calibrated against
+// measurements on the real device, and the lab's own safety rules apply to
+// any experiment planned from them.
+//
 // User input outside its accepted range returns an *InputError naming the
 // field ("dos.bins", "dos.moments", "dos.vectors" …), the accepted range and
 // the value received; jobs too large for dense methods return one of kind
