@@ -82,28 +82,51 @@ func TestGasketOrder(t *testing.T) {
 	}
 }
 
-func TestGasketSpectrumG1(t *testing.T) {
-	// Spectral decimation, normalised Laplacian 4(I − D⁻¹A) of generation 1:
-	// {0:1, 3:2, 6:3} (references.md; Fukushima & Shima, Potential Anal. 1, 1
-	// (1992), from memory). With degrees 2 and 4 D⁻¹A is similar to the
-	// symmetric D^(−1/2) A D^(−1/2), whose eigenvalues are 1 − μ/4.
-	g, err := Gasket(1)
-	require.NoError(t, err)
-	deg := degrees(g)
-	bonds := make([]Bond, g.NumBonds())
-	for k := range bonds {
-		b := g.Bond(k)
-		b.W = 1 / math.Sqrt(float64(deg[b.I]*deg[b.J]))
-		bonds[k] = b
+func TestGasketSpectrum(t *testing.T) {
+	// Spectral decimation, normalised Laplacian 4(I − D⁻¹A) (references.md;
+	// Fukushima & Shima, Potential Anal. 1, 1 (1992), from memory; [derived]):
+	// g=1 {0:1, 3:2, 6:3}; g=2 {0:1, (5−√13)/2:2, 3:3, (5+√13)/2:2, 5:1, 6:6}.
+	// D⁻¹A is similar to the symmetric D^(−1/2) A D^(−1/2), whose
+	// eigenvalues are 1 − μ/4.
+	r13 := math.Sqrt(13)
+	for g, want := range map[int][]float64{
+		1: {0, 3, 3, 6, 6, 6},
+		2: {0, (5 - r13) / 2, (5 - r13) / 2, 3, 3, 3, (5 + r13) / 2, (5 + r13) / 2, 5, 6, 6, 6, 6, 6, 6},
+	} {
+		gr, err := Gasket(g)
+		require.NoError(t, err)
+		deg := degrees(gr)
+		bonds := make([]Bond, gr.NumBonds())
+		for k := range bonds {
+			b := gr.Bond(k)
+			b.W = 1 / math.Sqrt(float64(deg[b.I]*deg[b.J]))
+			bonds[k] = b
+		}
+		sym, err := New(gr.Len(), 2, gr.Coords(), bonds, nil)
+		require.NoError(t, err)
+		v := eigenvalues(t, sym)
+		for i := range v {
+			v[i] = 4 * (1 - v[i])
+		}
+		sortFloats(v)
+		assert.InDeltaSlice(t, want, v, 1e-12, "g=%d", g)
 	}
-	sym, err := New(g.Len(), 2, g.Coords(), bonds, nil)
-	require.NoError(t, err)
-	v := eigenvalues(t, sym)
-	for i := range v {
-		v[i] = 4 * (1 - v[i])
+	// The adjacency spectrum has −2 with multiplicity (3^g − 3)/2
+	// (references.md) and lies in [−2, 4] (benchmarks.md).
+	for g := 2; g <= 4; g++ {
+		gr, err := Gasket(g)
+		require.NoError(t, err)
+		v := eigenvalues(t, gr)
+		count := 0
+		for _, e := range v {
+			if math.Abs(e+2) < 1e-9 {
+				count++
+			}
+		}
+		assert.Equal(t, (ipow(3, g)-3)/2, count, "g=%d", g)
+		assert.GreaterOrEqual(t, v[0], -2-1e-9)
+		assert.LessOrEqual(t, v[len(v)-1], 4.0) // the maximum degree bounds it
 	}
-	sortFloats(v)
-	assert.InDeltaSlice(t, []float64{0, 3, 3, 6, 6, 6}, v, 1e-12)
 }
 
 func TestGasketErrors(t *testing.T) {
