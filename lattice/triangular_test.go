@@ -91,3 +91,17 @@ func TestTriangularErrors(t *testing.T) {
 	_, err = TriangularPatch(2, 0, true)
 	requireInputError(t, err, fault.Invalid, "height")
 }
+
+func TestTriangleOrder(t *testing.T) {
+	// The order documented on Triangle: row r starts at r(L+1) − r(r−1)/2
+	// and site a of row r sits at (a + r/2, r√3/2).
+	L := 5
+	g, err := Triangle(L)
+	require.NoError(t, err)
+	for r := 0; r <= L; r++ {
+		for a := 0; a <= L-r; a++ {
+			i := r*(L+1) - r*(r-1)/2 + a
+			assert.InDeltaSlice(t, []float64{float64(a) + float64(r)/2, float64(r) * math.Sqrt(3) / 2}, g.Pos(nil, i), 1e-12)
+		}
+	}
+}
