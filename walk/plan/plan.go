@@ -53,6 +53,9 @@ type Request struct {
 	// and Seed 0 means Request.Seed.
 	Fit observables.RegimeSettings
 	// Walk configures the propagation (the zero value is its default).
+	// Realisations run in parallel on Walk.Workers goroutines (0:
+	// GOMAXPROCS), each propagation on one; results do not depend on the
+	// number of workers.
 	Walk walk.Settings
 }
 
@@ -113,6 +116,10 @@ func (r *Request) defaults() error {
 	if r.Dim < 1 || r.Dim > 64 {
 		return fault.Range("dim", "between 1 and 64", r.Dim)
 	}
+	// Validate the design first (also for Realisations = 1 and no disorder).
+	if _, err := lattice.FromPositions(r.Positions, r.Dim, r.Law, r.Cutoff, r.Detuning); err != nil {
+		return err
+	}
 	n := len(r.Positions) / r.Dim
 	switch {
 	case r.Start < 0 || r.Start >= n:
@@ -160,10 +167,6 @@ func (r *Request) defaults() error {
 // the regime analysis fails.
 func Make(ctx context.Context, r Request) (*Plan, error) {
 	if err := r.defaults(); err != nil {
-		return nil, err
-	}
-	// Validate the design once (also for Realisations = 1 and no disorder).
-	if _, err := lattice.FromPositions(r.Positions, r.Dim, r.Law, r.Cutoff, r.Detuning); err != nil {
 		return nil, err
 	}
 	grid := make([]float64, r.Points)
