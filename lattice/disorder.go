@@ -61,12 +61,7 @@ func (g *Graph) WithDisorder(d Disorder, rng *rand.Rand) (*Graph, error) {
 		return nil, fault.New("rng", "must be a seeded source such as rand.New(rand.NewPCG(seed, stream)); got nil")
 	}
 	h := *g
-	sample := func(w float64) float64 {
-		if d.Law == Gauss {
-			return w * rng.NormFloat64()
-		}
-		return w * (rng.Float64() - 0.5)
-	}
+	sample := func(w float64) float64 { return draw(rng, d.Law, w) } // coupling_disorder.go
 	if d.Onsite != 0 {
 		h.onsite = make([]float64, g.n)
 		if g.onsite != nil {
