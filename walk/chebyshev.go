@@ -30,6 +30,11 @@ type chebyshev struct {
 	t1, t2, acc, tmp []complex128
 	bes, scratch     []float64
 	coef             []complex128
+
+	// Real vectors for the classical walk on a real matrix (half the memory
+	// traffic of the complex recurrence); allocated on first use.
+	realOK                bool
+	r0, r1, r2, racc, rco []float64
 }
 
 // maxSegment is the largest a·Δt done as one series.
@@ -46,6 +51,7 @@ func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
 	}
 	if m, ok := op.(*sparse.CSR); ok {
 		c.csr = m
+		c.realOK = classical && m.IsReal()
 	} else {
 		c.tmp = make([]complex128, n)
 	}
@@ -86,7 +92,11 @@ func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, err
 	var prods int
 	for try := 0; ; try++ {
 		K, bound := c.coefficients(h, tol/norm)
-		c.series(psi, K)
+		if c.realOK && isRealVec(psi) {
+			c.seriesReal(psi, K)
+		} else {
+			c.series(psi, K)
+		}
 		prods += K
 		after := nrm2(c.acc)
 		if math.IsNaN(after) || math.IsInf(after, 0) {
@@ -211,6 +221,52 @@ func (c *chebyshev) series(psi []complex128, K int) {
 		c.next(prev, cur, prev, s, coef[k])
 		prev, cur = cur, prev
 	}
+}
+
+// seriesReal is series for a real state and real coefficients (the
+// classical walk), on float64 vectors with the real kernels.
+func (c *chebyshev) seriesReal(psi []complex128, K int) {
+	n := len(psi)
+	if c.r0 == nil {
+		c.r0, c.r1, c.r2, c.racc = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	}
+	if cap(c.rco) < K+1 {
+		c.rco = make([]float64, K+1, 2*K+2)
+	}
+	co := c.rco[:K+1]
+	for k := range co {
+		co[k] = real(c.coef[k])
+	}
+	r0, acc := c.r0, c.racc
+	for i, v := range psi {
+		r0[i] = real(v)
+		acc[i] = co[0] * real(v)
+	}
+	s := 1 / c.a
+	if K >= 1 {
+		c.csr.ChebFirstReal(c.r1, r0, acc, s, c.b, co[1])
+	}
+	if K >= 2 {
+		c.csr.ChebNextReal(c.r2, c.r1, r0, acc, s, c.b, co[2])
+		prev, cur := c.r1, c.r2
+		for k := 3; k <= K; k++ {
+			c.csr.ChebNextReal(prev, cur, prev, acc, s, c.b, co[k])
+			prev, cur = cur, prev
+		}
+	}
+	for i, v := range acc {
+		c.acc[i] = complex(v, 0)
+	}
+}
+
+// isRealVec reports whether every imaginary part of x is zero.
+func isRealVec(x []complex128) bool {
+	for _, v := range x {
+		if imag(v) != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 func (c *chebyshev) first(dst, cur []complex128, s float64, coef complex128) {

@@ -207,8 +207,8 @@ func (m Method) String() string { return methodName(m) }
 // off-diagonal entries needs under method m, beyond the operator itself:
 // the state vectors and the method's workspace. Exact counts the dense n×n
 // complex matrix and its eigenvectors (16·n² bytes each); Krylov the
-// Lanczos basis; Chebyshev its three recurrence vectors and the Lanczos run
-// for the spectral bounds. Auto returns the smallest of the three (the
+// Lanczos basis; Chebyshev its recurrence vectors (the Lanczos run for the
+// spectral bounds needs fewer). Auto returns the smallest of the three (the
 // method Auto can always fall back to). nnz is accepted so that callers can
 // add the operator's own storage consistently; it is not counted here.
 func EstimateBytes(n, nnz int, m Method) int64 {
@@ -221,7 +221,9 @@ func EstimateBytes(n, nnz int, m Method) int64 {
 	case Krylov:
 		return base + int64(krylovDim+1)*vec + 2*vec
 	case Chebyshev:
-		return base + 3*vec
+		// Three recurrence vectors and the accumulator; the classical walk
+		// adds four real vectors (two complex ones' worth).
+		return base + 6*vec
 	}
 	return EstimateBytes(n, nnz, Chebyshev)
 }
