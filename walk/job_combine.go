@@ -96,11 +96,19 @@ func (j *Job) combine(resp *Response, trs []*trace) error {
 		}
 	}
 	if j.reports("regimes") {
-		y, ye := msd, msdErr
+		curve := func(t *trace) []float64 { return t.msd }
 		if j.Fit.Quantity == "spread" {
-			y, ye = spread, spreadErr
+			curve = func(t *trace) []float64 { return t.spread }
 		}
-		if err := j.regimes(resp, j.Times, y, ye); err != nil {
+		if multi {
+			curves := make([][]float64, len(trs))
+			for r, tr := range trs {
+				curves[r] = curve(tr)
+			}
+			if err := j.ensembleRegimes(resp, curves); err != nil {
+				return err
+			}
+		} else if err := j.regimes(resp, j.Times, curve(trs[0]), nil); err != nil {
 			return err
 		}
 	}

@@ -9,12 +9,6 @@ func notYet(what string) error {
 	return fault.New("", "%s is not available in this build yet", what)
 }
 
-func spacingRatio(values []float64) (*RatioResult, error) { return nil, notYet("the spacing ratio") }
-
 func boxDimension(coords []float64, dim int) (*BoxDimResult, error) {
 	return nil, notYet("the box-counting dimension")
-}
-
-func (j *Job) regimes(resp *Response, times, y, yerr []float64) error {
-	return notYet("the regime analysis")
 }

@@ -38,6 +38,10 @@ type Response struct {
 	Regimes       []Regime    `json:"regimes,omitzero"`
 	Crossovers    []Crossover `json:"crossovers,omitzero"`
 	LocalExponent []float64   `json:"local_exponent,omitzero"`
+	// LocalExponentErr is the standard error of the local exponent over
+	// disorder realisations; FitTimes are the times of LocalExponent.
+	LocalExponentErr []float64 `json:"local_exponent_err,omitzero"`
+	FitTimes         []float64 `json:"fit_times,omitzero"`
 
 	Average    *Average `json:"average,omitzero"`
 	AverageErr *Average `json:"average_err,omitzero"`
@@ -63,6 +67,8 @@ type Regime struct {
 	Exponent float64 `json:"exponent"`
 	Error    float64 `json:"error"`
 	Kind     string  `json:"kind"`
+	// Prefactor A of y ≈ A·t^Exponent (an extension).
+	Prefactor float64 `json:"prefactor"`
 }
 
 // Crossover is the time between two consecutive regimes with its 95%
@@ -170,6 +176,7 @@ func (r *Response) finite() string {
 		{"spread", r.Spread}, {"spread_err", r.SpreadErr}, {"ipr", r.IPR}, {"ipr_err", r.IPRErr},
 		{"entropy", r.Entropy}, {"entropy_err", r.EntropyErr}, {"participation", r.Participation},
 		{"participation_err", r.ParticipationErr}, {"local_exponent", r.LocalExponent},
+		{"local_exponent_err", r.LocalExponentErr}, {"fit_times", r.FitTimes},
 		{"eigenvalues", r.Eigenvalues}}
 	for _, l := range lists {
 		if !allFinite(l.v) {
@@ -203,7 +210,7 @@ func (r *Response) finite() string {
 		}
 	}
 	for _, g := range r.Regimes {
-		if !allFinite([]float64{g.From, g.To, g.Exponent, g.Error}) {
+		if !allFinite([]float64{g.From, g.To, g.Exponent, g.Error, g.Prefactor}) {
 			return "regimes"
 		}
 	}

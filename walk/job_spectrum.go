@@ -9,6 +9,18 @@ import (
 	"github.com/ampwalk/ampwalk/spectra"
 )
 
+// spacingRatio adapts spectra.SpacingRatio: spacings below 1e-9 of the
+// spectral width (at least 1e-12) count as degeneracies (common practice for
+// eigenvalues from a dense solver, accurate to a few ulps of the width).
+func spacingRatio(values []float64) (*RatioResult, error) {
+	if len(values) < 3 {
+		return nil, fault.New("", "needs at least 3 levels; the graph has %d", len(values))
+	}
+	width := values[len(values)-1] - values[0]
+	r := spectra.SpacingRatio(values, max(1e-9*width, 1e-12))
+	return &RatioResult{Mean: r.Mean, Used: r.Used, Degenerate: r.Degenerate}, nil
+}
+
 // runSpectrum answers a spectrum job: eigenvalues, density of states,
 // spacing ratio and box-counting dimension of the (possibly thinned and
 // disordered) lattice, through package spectra.

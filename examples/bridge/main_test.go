@@ -1,0 +1,83 @@
+package main
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/json"
+	"errors"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// buildBridge compiles this command into a temporary directory.
+func buildBridge(t *testing.T) string {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("builds the bridge binary")
+	}
+	goBin, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command on PATH")
+	}
+	bin := filepath.Join(t.TempDir(), "ampwalk-bridge")
+	out, err := exec.Command(goBin, "build", "-o", bin, ".").CombinedOutput()
+	require.NoError(t, err, string(out))
+	return bin
+}
+
+func TestBridgeExitStatus(t *testing.T) {
+	bin := buildBridge(t)
+
+	// Bad lines get error lines; the exit status is still 0 (contract:
+	// "The process exits 0 at end of input, even when some requests failed").
+	cmd := exec.Command(bin)
+	cmd.Stdin = strings.NewReader(`{"id":"a","lattice":{"kind":"chain","sites":9},"start":{"site":4},"times":[0,1]}
+not json
+{"id":"b","lattice":{"kind":"gasket","generaton":2},"start":{"site":0},"times":[1]}
+{"id":"c","lattice":{"kind":"gasket","generation":2},"start":{"site":0},"times":[1]}
+`)
+	var stdout, stderr bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &stdout, &stderr
+	require.NoError(t, cmd.Run(), stderr.String())
+	var ids, codes []string
+	sc := bufio.NewScanner(&stdout)
+	for sc.Scan() {
+		var m struct {
+			ID    string `json:"id"`
+			Error *struct {
+				Code string `json:"code"`
+			} `json:"error"`
+		}
+		require.NoError(t, json.Unmarshal(sc.Bytes(), &m), sc.Text())
+		ids = append(ids, m.ID)
+		code := ""
+		if m.Error != nil {
+			code = m.Error.Code
+		}
+		codes = append(codes, code)
+	}
+	assert.Equal(t, []string{"a", "", "b", "c"}, ids)
+	assert.Equal(t, []string{"", "malformed", "unknown-field", ""}, codes)
+	// Logs go to stderr only.
+	assert.NotEmpty(t, stderr.String())
+
+	// Standard input that cannot be read (a directory): non-zero status.
+	dir, err := os.Open(t.TempDir())
+	require.NoError(t, err)
+	defer dir.Close()
+	cmd = exec.Command(bin)
+	cmd.Stdin = dir
+	stdout.Reset()
+	cmd.Stdout = &stdout
+	err = cmd.Run()
+	var ee *exec.ExitError
+	require.True(t, errors.As(err, &ee), "want a non-zero exit, got %v", err)
+	assert.Equal(t, 1, ee.ExitCode())
+	assert.Empty(t, stdout.String())
+}
