@@ -17,7 +17,9 @@ import (
 // correlated changes of neighbouring bonds and of next-nearest couplings are
 // kept. To first order a bond of length d changes by C′(d)·δd, with δd the
 // jitter projected on the bond direction, of standard deviation √2·σ for
-// independent ends.
+// independent ends. Choose the cutoff away from any neighbour shell
+// (between the next-nearest and the next shell, say): a jittered pair near
+// the cutoff is bonded in some realisations and not in others.
 type Fabrication struct {
 	Jitter   float64
 	Detuning float64

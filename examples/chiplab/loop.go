@@ -69,7 +69,7 @@ func run(ctx context.Context, out string, seed uint64, samples int, w io.Writer)
 	if err := writeFile(out, "plan.json", pl.WriteJSON); err != nil {
 		return err
 	}
-	fmt.Fprintf(w, "2. Plan (%d samples; plan.csv, plan.json)\n", len(pl.Samples))
+	fmt.Fprintf(w, "2. Plan (%d samples; plan.csv, plan.json; MSD there in µm²)\n", len(pl.Samples))
 	for _, r := range pl.Regimes {
 		fmt.Fprintf(w, "   %-16s %6.3g–%-6.3g cm  exponent %5.2f  samples %2d  predicted ± %.3g\n", r.Kind, r.From, r.To, r.Exponent, r.Samples, r.PredictedError)
 	}
@@ -107,7 +107,7 @@ func run(ctx context.Context, out string, seed uint64, samples int, w io.Writer)
 	}); err != nil {
 		return err
 	}
-	fmt.Fprintf(w, "3. Measure: SYNTHETIC intensities at %d lengths written to %s\n\n", len(lengths), mpath)
+	fmt.Fprintf(w, "3. Measure: SYNTHETIC intensities at %d lengths (planned lengths cut to 0.1 mm) written to %s\n\n", len(lengths), mpath)
 
 	// 4. Reduce: strict import, normalise, MSD with errors, regimes.
 	f, err := os.Open(mpath)
