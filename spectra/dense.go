@@ -35,19 +35,22 @@ func (e *Eigen) Weight(i, k int) float64 {
 	return real(z)*real(z) + imag(z)*imag(z)
 }
 
-// denseBytes estimates the memory of a dense diagonalisation of n sites:
-// the matrix (overwritten by the vectors) plus one n×n workspace, for
-// 8-byte (real) or 16-byte (complex) entries.
+// denseBytes estimates the peak memory of a dense diagonalisation of n
+// sites, in units of n² float64 values: the matrix (1 real, 2 complex); with
+// vectors, the tridiagonal eigenvectors, the back-transformation and the
+// divide-and-conquer workspace (3 in all for a real H, 9 for a complex one,
+// whose Householder vectors and real/imaginary planes are held separately).
 func denseBytes(n int, isReal, vectors bool) int64 {
-	per := int64(16)
-	if isReal {
-		per = 8
+	units := int64(2)
+	switch {
+	case isReal && vectors:
+		units = 3
+	case isReal:
+		units = 1
+	case vectors:
+		units = 9
 	}
-	m := int64(n) * int64(n) * per
-	if vectors {
-		return 2*m + 64*int64(n)
-	}
-	return m + 64*int64(n)
+	return units*int64(n)*int64(n)*8 + 64*int64(n)
 }
 
 // checkDense refuses graphs too large for a dense diagonalisation.

@@ -184,3 +184,21 @@ func TestSectorsErrors(t *testing.T) {
 	require.True(t, errors.As(err, &fe))
 	require.Equal(t, "symmetry", fe.Field)
 }
+
+func TestSectorsCarpetRotation(t *testing.T) {
+	// The carpet (cells variant, generation 2, 64 sites) is invariant under
+	// the 90° rotation about its centre (common practice): four sectors
+	// whose union is the full spectrum.
+	g, err := lattice.Carpet(2, lattice.CarpetCells)
+	require.NoError(t, err)
+	rot, err := PositionSymmetry(g, "C4", func(dst, p []float64) {
+		dst[0], dst[1] = 9-p[1], p[0] // (x, y) → (L − y, x) about (L/2, L/2), L = 9
+	})
+	require.NoError(t, err)
+	secs, err := Sectors(g, 1, []Symmetry{rot}, false)
+	require.NoError(t, err)
+	require.Len(t, secs, 4)
+	full, err := Eigenvalues(g, 1)
+	require.NoError(t, err)
+	requireClose(t, full, unionValues(secs), 1e-10)
+}
