@@ -76,9 +76,12 @@ func run(ctx context.Context, out string, seed uint64, samples int, w io.Writer)
 	fmt.Fprintf(w, "   %s\n\n", pl.Rationale)
 
 	// 3. "Measure": one fabricated chip, true coupling TrueC0, camera noise.
-	lengths := make([]float64, len(pl.Samples))
-	for i, s := range pl.Samples {
-		lengths[i] = math.Round(s.Length*100) / 100 // cut to 0.1 mm
+	var lengths []float64
+	for _, s := range pl.Samples {
+		z := math.Round(s.Length*100) / 100 // cut to 0.1 mm
+		if len(lengths) == 0 || z > lengths[len(lengths)-1] {
+			lengths = append(lengths, z) // samples closer than the cut merge
+		}
 	}
 	trueLaw := lattice.Exponential{C0: c.TrueC0, Kappa: c.Kappa, D0: c.Pitch}
 	chip, _, err := lattice.Fabrication{Jitter: c.Jitter, Law: lattice.Gauss}.Fabricate(pos, 2, trueLaw, c.Cutoff, nil, lattice.Realisation(seed, 1_000_000))
