@@ -90,6 +90,7 @@ func TestServeSpectrumJob(t *testing.T) {
 		`{"id":"s1","lattice":{"kind":"chain","sites":12},"spectrum":{"eigenvalues":true,"dos":{"bins":6,"method":"exact"},"ratio":true}}`,
 		`{"id":"s2","lattice":{"kind":"gasket","generation":4},"hopping":0.5,"spectrum":{"dos":{"bins":40,"moments":64,"vectors":4,"seed":3}}}`,
 		`{"id":"s3","lattice":{"kind":"gasket","generation":3},"spectrum":{"ratio":true}}`,
+		`{"id":"s4","lattice":{"kind":"gasket","generation":6},"spectrum":{"box_dimension":true}}`,
 	)
 	r := res[0]
 	requireOK(t, r)
@@ -129,6 +130,16 @@ func TestServeSpectrumJob(t *testing.T) {
 	// The gasket adjacency is massively degenerate (references.md): −2 has
 	// multiplicity (3^g−3)/2 = 12 at g = 3, so many spacings are zero.
 	assert.GreaterOrEqual(t, r["ratio"].(map[string]any)["degenerate"].(float64), 11.0)
+
+	r = res[3]
+	requireOK(t, r)
+	// Gasket d_f = ln3/ln2 (Gefen, Aharony, Alexander, PRL 50, 77 (1983),
+	// from memory). The bridge only forwards spectra.BoxDimension (tested
+	// exactly there); on the triangular positions of a generation-6 gasket
+	// the finite-size estimate is looser (1.49 here), hence ±0.15.
+	bd := r["box_dimension"].(map[string]any)
+	assert.InDelta(t, math.Log(3)/math.Log(2), bd["dimension"].(float64), 0.15)
+	assert.Less(t, bd["smallest"].(float64), bd["largest"].(float64))
 }
 
 func TestServeCorrelationsAndAverages(t *testing.T) {

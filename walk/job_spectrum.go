@@ -21,6 +21,16 @@ func spacingRatio(values []float64) (*RatioResult, error) {
 	return &RatioResult{Mean: r.Mean, Used: r.Used, Degenerate: r.Degenerate}, nil
 }
 
+// boxDimension adapts spectra.BoxDimension (unweighted box counting of the
+// site positions).
+func boxDimension(coords []float64, dim int) (*BoxDimResult, error) {
+	b, err := spectra.BoxDimension(coords, dim, nil)
+	if err != nil {
+		return nil, err
+	}
+	return &BoxDimResult{Dimension: b.Dimension, Error: b.Error, Smallest: b.Smallest, Largest: b.Largest}, nil
+}
+
 // runSpectrum answers a spectrum job: eigenvalues, density of states,
 // spacing ratio and box-counting dimension of the (possibly thinned and
 // disordered) lattice, through package spectra.
