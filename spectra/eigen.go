@@ -4,9 +4,6 @@ import (
 	"math"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
-	"gonum.org/v1/gonum/blas"
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack"
 	"gonum.org/v1/gonum/lapack/gonum"
 )
 
@@ -63,25 +60,33 @@ func HermEigen(a []complex128, n int, vectors bool) (values []float64, vecs []co
 	if err := eigCheckHerm(a, n); err != nil {
 		return nil, nil, err
 	}
+	ar := make([]float64, n*n)
+	ai := make([]float64, n*n)
+	for k, v := range a {
+		ar[k], ai[k] = real(v), -imag(v)
+	}
 	d := make([]float64, n)
 	e := make([]float64, n)
-	tau := make([]complex128, n)
-	hermTridiag(a, n, d, e, tau)
-	var impl gonum.Implementation
+	taur := make([]float64, n)
+	taui := make([]float64, n)
+	herTridiag(ar, ai, n, d, e, taur, taui)
 	if !vectors {
+		var impl gonum.Implementation
 		if ok := impl.Dsterf(n, d, e); !ok {
 			return nil, nil, eigErrNoConv()
 		}
 		return d, nil, nil
 	}
-	z := make([]float64, n*n)
-	work := make([]float64, max(1, 2*n-2))
-	if ok := impl.Dsteqr(lapack.EVTridiag, n, d, e, z, n, work); !ok {
+	xr := make([]float64, n*n)
+	if ok := tridiagEigen(n, d, e, xr, n); !ok {
 		return nil, nil, eigErrNoConv()
 	}
-	q := hermFormQ(a, n, tau)
-	vecs = eigMulCR(q, z, n)
-	return d, vecs, nil
+	xi := make([]float64, n*n)
+	herApplyQ(ar, ai, n, taur, taui, xr, xi, n)
+	for k := range a {
+		a[k] = complex(xr[k], xi[k])
+	}
+	return d, a, nil
 }
 
 func eigErrNoConv() error {
@@ -147,24 +152,4 @@ func eigCheckHerm(a []complex128, n int) error {
 		}
 	}
 	return nil
-}
-
-// eigMulCR returns the n×n product q·z of a complex and a real matrix, both
-// row-major, using two real matrix products.
-func eigMulCR(q []complex128, z []float64, n int) []complex128 {
-	re := make([]float64, n*n)
-	im := make([]float64, n*n)
-	for i, v := range q {
-		re[i], im[i] = real(v), imag(v)
-	}
-	g := func(s []float64) blas64.General { return blas64.General{Rows: n, Cols: n, Stride: n, Data: s} }
-	pr := make([]float64, n*n)
-	pi := make([]float64, n*n)
-	blas64.Gemm(blas.NoTrans, blas.NoTrans, 1, g(re), g(z), 0, g(pr))
-	blas64.Gemm(blas.NoTrans, blas.NoTrans, 1, g(im), g(z), 0, g(pi))
-	out := q[:n*n]
-	for i := range out {
-		out[i] = complex(pr[i], pi[i])
-	}
-	return out
 }

@@ -140,3 +140,43 @@ func TestSymvUpper(t *testing.T) {
 		}
 	}
 }
+
+func TestHemvSplit(t *testing.T) {
+	rnd := rand.New(rand.NewPCG(10, 1))
+	for _, m := range []int{1, 4, 191, 192, 500} {
+		lda := m + 1
+		ar := make([]float64, m*lda)
+		ai := make([]float64, m*lda)
+		for i := range ar {
+			ar[i] = 2*rnd.Float64() - 1
+			ai[i] = 2*rnd.Float64() - 1
+		}
+		xr := make([]float64, m)
+		xi := make([]float64, m)
+		for i := range xr {
+			xr[i], xi[i] = rnd.Float64(), rnd.Float64()
+		}
+		yr := make([]float64, m)
+		yi := make([]float64, m)
+		HemvSplit(m, ar, ai, lda, xr, xi, yr, yi, make([]float64, 16*m))
+		for r := 0; r < m; r++ {
+			var s complex128
+			for c := 0; c < m; c++ {
+				var h complex128
+				switch {
+				case c == r:
+					h = complex(ar[r*lda+r], 0)
+				case c > r: // H[r][c] = conj(H[c][r]) = conj(a[r][c])
+					h = complex(ar[r*lda+c], -ai[r*lda+c])
+				default: // H[r][c] = a[c][r]
+					h = complex(ar[c*lda+r], ai[c*lda+r])
+				}
+				s += h * complex(xr[c], xi[c])
+			}
+			// m ≤ 500 terms of modulus ≤ 2 (common practice).
+			if math.Abs(real(s)-yr[r]) > 1e-12 || math.Abs(imag(s)-yi[r]) > 1e-12 {
+				t.Fatalf("m=%d: y[%d] = %g%+gi, want %v", m, r, yr[r], yi[r], s)
+			}
+		}
+	}
+}
