@@ -1,6 +1,7 @@
 package spectra
 
 import (
+	"context"
 	"math"
 	"math/cmplx"
 	"math/rand/v2"
@@ -37,6 +38,8 @@ type KPMSettings struct {
 const (
 	maxMoments = 1 << 16
 	maxVectors = 1 << 14
+	maxStored  = 1 << 24 // vectors × moments
+	maxBinWork = 1 << 30 // bins × moments
 )
 
 func (s *KPMSettings) fill() error {
@@ -57,6 +60,14 @@ func (s *KPMSettings) fill() error {
 	}
 	if err := checkBins(s.Bins); err != nil {
 		return err
+	}
+	// The moments of every vector are kept (for the error bars), and each
+	// bin costs one pass over the moments.
+	if s.Vectors*s.Moments > maxStored {
+		return fault.Range("dos.vectors", "at most "+itoa(maxStored/s.Moments)+" with "+itoa(s.Moments)+" moments", s.Vectors)
+	}
+	if int64(s.Bins)*int64(s.Moments) > maxBinWork {
+		return fault.Range("dos.bins", "at most "+itoa(int(maxBinWork/int64(s.Moments)))+" with "+itoa(s.Moments)+" moments", s.Bins)
 	}
 	if s.Workers <= 0 {
 		s.Workers = runtime.GOMAXPROCS(0)
@@ -97,12 +108,23 @@ func Jackson(m int) []float64 {
 // The bins span [b − a, b + a]; each bin holds the exact integral of the
 // kernel-damped series over it divided by its width, so the density
 // integrates to 1 over the bins. Error gives the standard error of each bin
-// over the vectors (R ≥ 2) and Nominal the expected relative error 1/√(R·N).
+// over the vectors (R ≥ 2, and bins·M·R ≤ 2³¹, else nil) and Nominal the
+// expected relative error 1/√(R·N).
+//
+// Limits (errors name the field): 2 ≤ M ≤ 65536, 1 ≤ R ≤ 16384 with
+// R·M ≤ 2²⁴, 1 ≤ bins ≤ 2²⁰ with bins·M ≤ 2³⁰.
 func KPM(h *sparse.CSR, s KPMSettings) (DOS, error) {
+	return KPMContext(context.Background(), h, s)
+}
+
+// KPMContext is KPM checked against ctx between Chebyshev steps; a
+// cancelled run returns an error wrapping the context's error
+// (errors.Is(err, context.Canceled)) and a *fault.Error of kind Cancelled.
+func KPMContext(ctx context.Context, h *sparse.CSR, s KPMSettings) (DOS, error) {
 	if err := s.fill(); err != nil {
 		return DOS{}, err
 	}
-	mu, err := kpmMoments(h, &s, -1)
+	mu, err := kpmMoments(ctx, h, &s, -1)
 	if err != nil {
 		return DOS{}, err
 	}
@@ -123,7 +145,7 @@ func LocalDOS(h *sparse.CSR, site int, s KPMSettings) (DOS, error) {
 	if err := s.fill(); err != nil {
 		return DOS{}, err
 	}
-	mu, err := kpmMoments(h, &s, site)
+	mu, err := kpmMoments(context.Background(), h, &s, site)
 	if err != nil {
 		return DOS{}, err
 	}
@@ -135,7 +157,7 @@ func LocalDOS(h *sparse.CSR, site int, s KPMSettings) (DOS, error) {
 
 // kpmMoments fills s.Lo, s.Hi (when unset) and returns the moments of each
 // vector, mu[r][n]; site ≥ 0 selects the single basis vector e_site.
-func kpmMoments(h *sparse.CSR, s *KPMSettings, site int) ([][]float64, error) {
+func kpmMoments(ctx context.Context, h *sparse.CSR, s *KPMSettings, site int) ([][]float64, error) {
 	known := s.Lo < s.Hi
 	if !known {
 		lo, hi, err := Bounds(h, s.LanczosSteps, s.Seed)
@@ -145,7 +167,10 @@ func kpmMoments(h *sparse.CSR, s *KPMSettings, site int) ([][]float64, error) {
 		s.Lo, s.Hi = lo, hi
 	}
 	for attempt := 0; ; attempt++ {
-		mu, ok := kpmRun(h, s, site)
+		mu, ok := kpmRun(ctx, h, s, site)
+		if err := ctx.Err(); err != nil {
+			return nil, &cancelError{err}
+		}
 		if ok {
 			return mu, nil
 		}
@@ -161,7 +186,7 @@ func kpmMoments(h *sparse.CSR, s *KPMSettings, site int) ([][]float64, error) {
 // kpmRun computes the moments of every vector with the current bounds; it
 // reports false when a moment exceeds 1 in modulus by more than rounding
 // (an eigenvalue outside the bounds).
-func kpmRun(h *sparse.CSR, s *KPMSettings, site int) ([][]float64, bool) {
+func kpmRun(ctx context.Context, h *sparse.CSR, s *KPMSettings, site int) ([][]float64, bool) {
 	lo, hi := s.Lo, s.Hi
 	if hi-lo < 1e-12*(1+math.Abs(lo)+math.Abs(hi)) {
 		lo, hi = lo-0.5, hi+0.5 // a spectrum of one point
@@ -180,7 +205,10 @@ func kpmRun(h *sparse.CSR, s *KPMSettings, site int) ([][]float64, bool) {
 			defer wg.Done()
 			var ws kpmWork
 			for r := range jobs {
-				mu[r], bad[r] = ws.moments(h, s, site, r, 1/a, b)
+				if ctx.Err() != nil {
+					continue // drain: the caller reports the cancellation
+				}
+				mu[r], bad[r] = ws.moments(ctx, h, s, site, r, 1/a, b)
 			}
 		}()
 	}
@@ -205,7 +233,7 @@ type kpmWork struct {
 
 // moments returns μ_0 … μ_{M−1} of vector r, normalised by ⟨v|v⟩, and
 // whether any exceeded 1 + 1e-6 in modulus.
-func (w *kpmWork) moments(h *sparse.CSR, s *KPMSettings, site, r int, scale, shift float64) ([]float64, bool) {
+func (w *kpmWork) moments(ctx context.Context, h *sparse.CSR, s *KPMSettings, site, r int, scale, shift float64) ([]float64, bool) {
 	n, m := h.N, s.Moments
 	mu := make([]float64, m)
 	rng := rand.New(rand.NewPCG(s.Seed, uint64(r)))
@@ -269,6 +297,9 @@ func (w *kpmWork) moments(h *sparse.CSR, s *KPMSettings, site, r int, scale, shi
 	// Step k computes α_{k+1} from α_k, α_{k−1} with ⟨α_k|α_k⟩ and
 	// ⟨α_{k+1}|α_k⟩: μ_{2k} = 2⟨α_k|α_k⟩ − μ_0, μ_{2k+1} = 2⟨α_{k+1}|α_k⟩ − μ_1.
 	for k := 1; 2*k < m; k++ {
+		if k%32 == 0 && ctx.Err() != nil {
+			return mu, false
+		}
 		cc, dc := dot(false)
 		mu[2*k] = 2*cc/norm - mu[0]
 		if 2*k+1 < m {
@@ -291,58 +322,74 @@ func kpmDensity(mu [][]float64, s *KPMSettings) DOS {
 	m, bins, R := s.Moments, s.Bins, len(mu)
 	g := Jackson(m)
 	width := (s.Hi - s.Lo) / float64(bins)
-	// c[r][n] = g_n μ_n (with the factor 2 for n ≥ 1), and the mean over r.
-	c := make([][]float64, R+1)
-	for r := 0; r <= R; r++ {
-		c[r] = make([]float64, m)
+	// Per-vector densities (for the error bars) cost bins·M·R; beyond 2³¹
+	// operations only the mean is formed and Error stays nil.
+	r0 := 0
+	if R < 2 || int64(bins)*int64(m)*int64(R+1) > 1<<31 {
+		r0 = R
 	}
+	// c[n·(R+1) + r] = g_n μ_n^{(r)} (twice that for n ≥ 1); r = R is the mean.
+	w := R + 1
+	c := make([]float64, m*w)
 	for r := 0; r < R; r++ {
 		for n := 0; n < m; n++ {
 			f := g[n] * mu[r][n]
 			if n > 0 {
 				f *= 2
 			}
-			c[r][n] = f
-			c[R][n] += f / float64(R)
-		}
-	}
-	// F_r(θ) = (1/π)[c_0 θ + Σ_{n≥1} c_n sin(nθ)/n] at every edge; the
-	// mass of a bin is F(θ_left) − F(θ_right).
-	F := make([][]float64, bins+1)
-	for e := 0; e <= bins; e++ {
-		x := -1 + 2*float64(e)/float64(bins)
-		x = math.Max(-1, math.Min(1, x))
-		th := math.Acos(x)
-		F[e] = make([]float64, R+1)
-		s1, s0 := math.Sin(th), 0.0 // sin(nθ), sin((n−1)θ)
-		c2 := 2 * math.Cos(th)
-		for r := 0; r <= R; r++ {
-			F[e][r] = c[r][0] * th
-		}
-		for n := 1; n < m; n++ {
-			t := s1 / float64(n)
-			for r := 0; r <= R; r++ {
-				F[e][r] += c[r][n] * t
-			}
-			s0, s1 = s1, c2*s1-s0
+			c[n*w+r] = f
+			c[n*w+R] += f / float64(R)
 		}
 	}
 	d := DOS{Energy: make([]float64, bins), Density: make([]float64, bins), Width: width,
 		Moments: m, Vectors: R, Lo: s.Lo, Hi: s.Hi}
-	if R >= 2 {
+	if r0 == 0 {
 		d.Error = make([]float64, bins)
 	}
-	for b := 0; b < bins; b++ {
-		d.Energy[b] = s.Lo + (float64(b)+0.5)*width
-		d.Density[b] = (F[b][R] - F[b+1][R]) / math.Pi / width
-		if R >= 2 {
-			var v float64
-			for r := 0; r < R; r++ {
-				t := (F[b][r]-F[b+1][r])/math.Pi/width - d.Density[b]
-				v += t * t
-			}
-			d.Error[b] = math.Sqrt(v / float64(R-1) / float64(R))
+	// F_r(θ) = (1/π)[c_0 θ + Σ_{n≥1} c_n sin(nθ)/n] at every edge; the mass
+	// of a bin is F(θ_left) − F(θ_right). Edges are visited in order, keeping
+	// the previous edge's values.
+	prev, cur := make([]float64, w), make([]float64, w)
+	for e := 0; e <= bins; e++ {
+		x := -1 + 2*float64(e)/float64(bins)
+		th := math.Acos(math.Max(-1, math.Min(1, x)))
+		s1, s0 := math.Sin(th), 0.0 // sin(nθ), sin((n−1)θ)
+		c2 := 2 * math.Cos(th)
+		for r := r0; r <= R; r++ {
+			cur[r] = c[r] * th
 		}
+		for n := 1; n < m; n++ {
+			t := s1 / float64(n)
+			cn := c[n*w : (n+1)*w]
+			for r := r0; r <= R; r++ {
+				cur[r] += cn[r] * t
+			}
+			s0, s1 = s1, c2*s1-s0
+		}
+		if e > 0 {
+			b := e - 1
+			d.Energy[b] = s.Lo + (float64(b)+0.5)*width
+			d.Density[b] = (prev[R] - cur[R]) / math.Pi / width
+			if d.Error != nil {
+				var v float64
+				for r := 0; r < R; r++ {
+					t := (prev[r]-cur[r])/math.Pi/width - d.Density[b]
+					v += t * t
+				}
+				d.Error[b] = math.Sqrt(v / float64(R-1) / float64(R))
+			}
+		}
+		prev, cur = cur, prev
 	}
 	return d
+}
+
+// cancelError wraps the context's error so that errors.Is(err,
+// context.Canceled) holds and errors.As finds a *fault.Error of kind
+// Cancelled.
+type cancelError struct{ err error }
+
+func (c *cancelError) Error() string { return "spectra: cancelled: " + c.err.Error() }
+func (c *cancelError) Unwrap() []error {
+	return []error{c.err, &fault.Error{Kind: fault.Cancelled, Msg: "cancelled: " + c.err.Error()}}
 }

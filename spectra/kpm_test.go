@@ -1,6 +1,7 @@
 package spectra
 
 import (
+	"context"
 	"errors"
 	"math"
 	"testing"
@@ -188,4 +189,25 @@ func TestKPMFluxRing(t *testing.T) {
 		// error ≈ 1/√(R·N) ≈ 0.03 (Weiße et al. 2006); 3σ.
 		require.InDelta(t, want, cumulativeAt(d, e), 0.09, "DOS E=%v", e)
 	}
+}
+
+func TestKPMCancel(t *testing.T) {
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	_, err := KPMContext(ctx, gasketGraph(t, 5).Hamiltonian(1), KPMSettings{})
+	require.True(t, errors.Is(err, context.Canceled))
+	var fe *InputError
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "cancelled", fe.Kind.String())
+}
+
+func TestKPMLimits(t *testing.T) {
+	h := cycleGraph(t, 5).Hamiltonian(1)
+	var fe *InputError
+	_, err := KPM(h, KPMSettings{Moments: 65536, Vectors: 1000})
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "dos.vectors", fe.Field)
+	_, err = KPM(h, KPMSettings{Moments: 65536, Bins: 1 << 20})
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "dos.bins", fe.Field)
 }
