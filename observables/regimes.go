@@ -248,12 +248,14 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 	bestScore := math.Inf(1)
 	bestRSS := 0.0
 	ln := math.Log(float64(n))
+	bl.setY(y)
 	for k := 0; k <= maxK; k++ {
-		psi, rss, ok := bl.search(k, y)
+		psi, ok := bl.search(k)
 		if !ok {
 			res.Tried = k
 			break
 		}
+		rss := bl.fit(psi, y)
 		m := k + 1
 		var score float64
 		if sw != nil {
@@ -457,7 +459,8 @@ func bootstrapIntervals(bl *brokenLine, y, sw, psi []float64, cr []Crossover, s 
 			}
 		}
 		copy(trial, psi)
-		bl.refine(trial, ys)
+		bl.setY(ys)
+		bl.refine(trial)
 		for j, p := range trial {
 			draws[j] = append(draws[j], p)
 		}

@@ -113,7 +113,7 @@ func TestFitRegimesCoverage(t *testing.T) {
 					e = append(e, sigma*y)
 				}
 			}
-			f, err := FitRegimes(ts, ys, e, RegimeSettings{MaxSegments: 2, Seed: uint64(seed), Replicates: 100})
+			f, err := FitRegimes(ts, ys, e, RegimeSettings{MaxSegments: 2, Seed: uint64(seed)})
 			require.NoError(t, err)
 			if f.Segments == 2 && f.Crossovers[0].Low <= truth && truth <= f.Crossovers[0].High {
 				covered++

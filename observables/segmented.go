@@ -15,12 +15,14 @@ import (
 // breakpoint counts for both sides). Breakpoints are located by an
 // exhaustive search over a grid of candidate positions followed by
 // coordinate-wise refinement (a scan and a golden-section search per
-// breakpoint, repeated until nothing moves); the linear coefficients come
-// from a Householder least-squares solve at each trial ψ.
+// breakpoint, repeated until nothing moves). Trial breakpoints are scored by
+// the O(K³) normal-equation evaluator of hingeSums; the fit reported at the
+// optimum comes from a Householder least-squares solve (fit).
 type brokenLine struct {
 	x, sw  []float64
 	n      int
 	minPts int
+	h      *hingeSums
 	// scratch
 	a, r, beta []float64
 }
@@ -28,9 +30,12 @@ type brokenLine struct {
 func newBrokenLine(x, sw []float64, minPts, maxBreaks int) *brokenLine {
 	n := len(x)
 	p := maxBreaks + 2
-	return &brokenLine{x: x, sw: sw, n: n, minPts: minPts,
+	return &brokenLine{x: x, sw: sw, n: n, minPts: minPts, h: newHingeSums(x, sw, maxBreaks),
 		a: make([]float64, n*p), r: make([]float64, n), beta: make([]float64, p)}
 }
+
+// setY fixes the ordinates that search and refine fit.
+func (b *brokenLine) setY(y []float64) { b.h.setY(y) }
 
 // maxBreaks returns the largest number of breakpoints the data can carry.
 func (b *brokenLine) maxBreaks() int {
@@ -139,23 +144,25 @@ func (b *brokenLine) grid(g int) []float64 {
 func gridSize(k int) int {
 	switch k {
 	case 1:
-		return 80
+		return 400
 	case 2:
-		return 48
+		return 120
 	case 3:
-		return 26
+		return 44
 	case 4:
-		return 17
+		return 26
+	case 5:
+		return 18
 	default:
-		return 12
+		return 14
 	}
 }
 
-// search finds the best k breakpoints for y from scratch. It returns false
-// when no feasible placement exists.
-func (b *brokenLine) search(k int, y []float64) ([]float64, float64, bool) {
+// search finds the best k breakpoints for the ordinates given to setY from
+// scratch. It returns false when no feasible placement exists.
+func (b *brokenLine) search(k int) ([]float64, bool) {
 	if k == 0 {
-		return nil, b.fit(nil, y), true
+		return nil, true
 	}
 	cand := b.grid(gridSize(k))
 	best := math.Inf(1)
@@ -167,7 +174,7 @@ func (b *brokenLine) search(k int, y []float64) ([]float64, float64, bool) {
 			if !b.feasible(psi) {
 				return
 			}
-			if r := b.fit(psi, y); r < best {
+			if r := b.h.rss(psi); r < best {
 				best = r
 				bestPsi = append(bestPsi[:0], psi...)
 			}
@@ -184,16 +191,16 @@ func (b *brokenLine) search(k int, y []float64) ([]float64, float64, bool) {
 	}
 	rec(0, 0)
 	if bestPsi == nil {
-		return nil, 0, false
+		return nil, false
 	}
-	rss := b.refine(bestPsi, y)
-	return bestPsi, rss, true
+	b.refine(bestPsi)
+	return bestPsi, true
 }
 
 // refine improves psi in place by coordinate-wise scans and golden-section
-// searches, and returns the final residual sum of squares.
-func (b *brokenLine) refine(psi, y []float64) float64 {
-	cur := b.fit(psi, y)
+// searches on the ordinates given to setY.
+func (b *brokenLine) refine(psi []float64) {
+	cur := b.h.rss(psi)
 	span := b.x[b.n-1] - b.x[0]
 	for sweep := 0; sweep < 20; sweep++ {
 		moved := 0.0
@@ -205,7 +212,7 @@ func (b *brokenLine) refine(psi, y []float64) float64 {
 			old := psi[k]
 			f := func(s float64) float64 {
 				psi[k] = s
-				return b.fit(psi, y)
+				return b.h.rss(psi)
 			}
 			// Scan, then golden section around the best scan point.
 			const m = 12
@@ -233,7 +240,6 @@ func (b *brokenLine) refine(psi, y []float64) float64 {
 			break
 		}
 	}
-	return b.fit(psi, y)
 }
 
 // golden minimises f on [a, c] by golden-section search and returns the best
