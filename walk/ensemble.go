@@ -2,8 +2,11 @@ package walk
 
 import (
 	"context"
+	"fmt"
 	"math"
 	"sync"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
 )
 
 // Ensemble runs fn for the realisations r = 0 … n−1 on at most workers
@@ -11,7 +14,8 @@ import (
 // realisation order, so that anything combined from them in that order does
 // not depend on scheduling. fn receives a context that is cancelled as soon
 // as any realisation fails; the error returned is that of the lowest
-// failing realisation index (or ctx's error when ctx ends first).
+// failing realisation index (or ctx's error when ctx ends first). A panic
+// in fn is recovered and returned as a Numerical *InputError.
 //
 // Ensemble is the runner behind the "disorder" extension: realisation r
 // draws its disorder from its own seeded stream, so any single realisation
@@ -32,7 +36,7 @@ func Ensemble[R any](ctx context.Context, n, workers int, fn func(ctx context.Co
 		go func() {
 			defer wg.Done()
 			for r := range next {
-				res, err := fn(ctx, r)
+				res, err := safeCall(ctx, r, fn)
 				if err != nil {
 					errs[r] = err
 					cancel()
@@ -70,6 +74,17 @@ feed:
 		return nil, err
 	}
 	return out, nil
+}
+
+// safeCall runs fn and turns a panic into a Numerical error, so that a
+// failing realisation cannot crash the process that serves jobs.
+func safeCall[R any](ctx context.Context, r int, fn func(ctx context.Context, r int) (R, error)) (res R, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			err = &fault.Error{Kind: fault.Numerical, Msg: fmt.Sprintf("internal failure in realisation %d: %v", r, p)}
+		}
+	}()
+	return fn(ctx, r)
 }
 
 // MeanErr returns the mean over samples of each entry and the standard error
