@@ -38,6 +38,25 @@
 // the MSD exponent α (see the Kind constants): super-ballistic, ballistic,
 // super-diffusive, diffusive, sub-diffusive, saturated.
 //
+// A typical use, with p the probabilities at one reported time, coords the
+// site positions in two dimensions and start the initial site:
+//
+//	p = observables.Probabilities(p, psi)           // |ψ_j|², reusing p
+//	msd[k] = observables.MSD(p, coords, 2, coords[2*start:2*start+2])
+//	returns[k] = p[start]
+//	…
+//	fit, err := observables.FitRegimes(times, msd, nil, observables.RegimeSettings{Seed: 1})
+//	// fit.Regimes[i].Kind, .Exponent, .Error; fit.Crossovers[i].Time, .Low, .High
+//	polya, err := observables.Polya(returns)
+//
+// # Files
+//
+// probability.go, region.go, radial.go: per-time reductions. average.go,
+// window.go: infinite- and finite-time averages. polya.go: the Pólya number.
+// correlations.go: two-particle correlations. localexp.go: the smoothed local
+// exponent. regimes.go (with segmented.go, hinge.go, lsq.go): the regime
+// analysis. ensemble.go: means and standard errors over realisations.
+//
 // # Errors
 //
 // Input a user can get wrong (empty, NaN or negative values, unsorted times,
