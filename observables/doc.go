@@ -34,9 +34,10 @@
 // broken-line fit of ln y against ln t with 1…MaxSegments segments whose
 // breakpoints are optimised and whose number is chosen by BIC, exponent
 // errors from the fit covariance and 95% crossover intervals from a seeded
-// residual bootstrap. Each regime carries a label that is a statement about
-// the MSD exponent α (see the Kind constants): super-ballistic, ballistic,
-// super-diffusive, diffusive, sub-diffusive, saturated.
+// bootstrap (residual resampling, or parametric when per-point errors are
+// given). Each regime carries a label that is a statement about the MSD
+// exponent α (see the Kind constants): super-ballistic, ballistic,
+// super-diffusive, diffusive, sub-diffusive, saturated, decreasing.
 //
 // A typical use, with p the probabilities at one reported time, coords the
 // site positions in two dimensions and start the initial site:
