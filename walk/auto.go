@@ -73,6 +73,10 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 			haveIV = true
 			a := (iv.hi - iv.lo) / 2
 			chebProducts := a*tmax + 25*float64(steps) + float64(intervalSteps)
+			if classical {
+				// e^{−x}I_k(x) falls like e^{−k²/2x}: about √(2x·ln(1/ε)) terms.
+				chebProducts = math.Sqrt(2*a*tmax*30) + 25*float64(steps)
+			}
 			chebCost := chebProducts * float64(nnz+2*n) * secPerEntry
 			exactCost := math.Inf(1)
 			if exactOK {
@@ -108,6 +112,25 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 	default:
 		if b := EstimateBytes(n, nnz, Chebyshev); b > s.MemoryLimit {
 			return nil, 0, fault.Large("lattice", b, s.MemoryLimit)
+		}
+		if classical {
+			// The classical series costs O(√(a·t)) products, so a rigorous
+			// interval is worth its slack: Gershgorin for a CSR matrix
+			// (for γL exactly [0, 2γ·max degree]); otherwise the Lanczos
+			// bounds with 5% more room, the norm check catching the rest.
+			if c, ok := op.(*sparse.CSR); ok {
+				lo, hi := gershgorin(c)
+				return newChebyshev(op, classical, interval{lo: lo, hi: hi}), iv.products, nil
+			}
+			if !haveIV {
+				var err error
+				if iv, err = spectralInterval(ctx, op); err != nil {
+					return nil, iv.products, err
+				}
+			}
+			w := iv.hi - iv.lo
+			iv.lo, iv.hi = iv.lo-0.05*w, iv.hi+0.05*w
+			return newChebyshev(op, classical, iv), iv.products, nil
 		}
 		if !haveIV {
 			var err error

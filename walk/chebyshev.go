@@ -35,10 +35,21 @@ type chebyshev struct {
 	// traffic of the complex recurrence); allocated on first use.
 	realOK                bool
 	r0, r1, r2, racc, rco []float64
+
+	// metzler: the classical generator has real off-diagonal entries ≤ 0
+	// (as γL does), so exp(−Ht) maps non-negative vectors to non-negative
+	// ones; a clearly negative result then reveals a bad interval.
+	metzler bool
 }
 
-// maxSegment is the largest a·Δt done as one series.
-const maxSegment = 500
+// maxSegment is the largest a·Δt done as one quantum series. The classical
+// series needs only O(√(aΔt·log(1/ε))) terms (the scaled Bessel values
+// e^{−x}I_k(x) fall like e^{−k²/2x}), so splitting would cost more than it
+// saves; maxSegmentClassical only bounds the coefficient arrays.
+const (
+	maxSegment          = 500
+	maxSegmentClassical = 1e5
+)
 
 func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
 	n := op.Len()
@@ -52,6 +63,7 @@ func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
 	if m, ok := op.(*sparse.CSR); ok {
 		c.csr = m
 		c.realOK = classical && m.IsReal()
+		c.metzler = c.realOK && offDiagNonPositive(m)
 	} else {
 		c.tmp = make([]complex128, n)
 	}
@@ -62,7 +74,11 @@ func (c *chebyshev) name() string { return "chebyshev" }
 
 // step advances psi by dt with a 2-norm error at most tol.
 func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64) (int, float64, error) {
-	nseg := int(math.Ceil(c.a * dt / maxSegment))
+	seg := float64(maxSegment)
+	if c.classical {
+		seg = maxSegmentClassical
+	}
+	nseg := int(math.Ceil(c.a * dt / seg))
 	nseg = max(nseg, 1)
 	h := dt / float64(nseg)
 	var prods int
@@ -109,6 +125,9 @@ func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, err
 		bad := false
 		if c.classical {
 			bad = c.b-c.a >= -1e-12*c.a && after > norm+slack
+			if !bad && c.metzler && minReal(psi) >= -1e-14*norm {
+				bad = minReal(c.acc) < -slack
+			}
 		} else {
 			bad = math.Abs(after-norm) > slack
 		}
@@ -130,8 +149,9 @@ func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, err
 // fixes a K that certainly suffices; the computed values then allow an
 // earlier stop. For k ≥ x the ratios r_k = J_{k+1}/J_k lie in
 // [0, x/(2k+2−x)] (from the recurrence written as a continued fraction),
-// and for all k, I_{k+1}/I_k ≤ x/(2k+2); so a tail is at most its first
-// term over one minus that ratio.
+// and the ratios I_{k+1}/I_k decrease with k (Amos, Math. Comp. 28, 239
+// (1974) (from memory)), so the computed ratio at K+1 bounds all later ones;
+// a tail is then at most its first term over one minus that ratio.
 func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
 	x := c.a * h
 	var pre float64 // prefactor of the Bessel values
@@ -146,11 +166,11 @@ func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
 	}
 	epsB := eps / math.Max(pre, 1e-300)
 	kb := boundIndex(x, epsB)
-	if cap(c.bes) < kb+2 {
-		c.bes = make([]float64, kb+2)
-		c.coef = make([]complex128, kb+2)
+	if cap(c.bes) < kb+3 {
+		c.bes = make([]float64, kb+3, 2*kb+6)
+		c.coef = make([]complex128, kb+3, 2*kb+6)
 	}
-	bes := c.bes[:kb+2]
+	bes := c.bes[:kb+3]
 	if c.classical {
 		c.scratch = besselIScaled(bes, x, c.scratch)
 	} else {
@@ -161,11 +181,16 @@ func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
 	for k := 1; k < kb; k++ {
 		var t float64
 		if c.classical {
-			r := x / (2 * float64(k+2))
+			if bes[k+1] == 0 {
+				K, tail = k, 0
+				break
+			}
+			// The computed ratio, with a little room for its rounding.
+			r := bes[k+2] / bes[k+1] * (1 + 1e-12)
 			if r >= 1 {
 				continue
 			}
-			t = 2 * math.Abs(bes[k+1]) / (1 - r)
+			t = 2 * bes[k+1] / (1 - r)
 		} else {
 			if float64(k+1) < x {
 				continue
@@ -201,7 +226,7 @@ func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
 
 // series sets c.acc = Σ_{k≤K} coef_k T_k(H̃) psi, leaving psi unchanged.
 func (c *chebyshev) series(psi []complex128, K int) {
-	coef := c.coef
+	coef := c.coef[:K+1]
 	c0 := coef[0]
 	acc := c.acc
 	for i, v := range psi {
@@ -234,8 +259,8 @@ func (c *chebyshev) seriesReal(psi []complex128, K int) {
 		c.rco = make([]float64, K+1, 2*K+2)
 	}
 	co := c.rco[:K+1]
-	for k := range co {
-		co[k] = real(c.coef[k])
+	for k, v := range c.coef[:K+1] {
+		co[k] = real(v)
 	}
 	r0, acc := c.r0, c.racc
 	for i, v := range psi {
@@ -257,6 +282,29 @@ func (c *chebyshev) seriesReal(psi []complex128, K int) {
 	for i, v := range acc {
 		c.acc[i] = complex(v, 0)
 	}
+}
+
+// minReal returns the smallest real part in x.
+func minReal(x []complex128) float64 {
+	m := math.Inf(1)
+	for _, v := range x {
+		m = math.Min(m, real(v))
+	}
+	return m
+}
+
+// offDiagNonPositive reports whether every stored off-diagonal entry of the
+// real matrix m is ≤ 0.
+func offDiagNonPositive(m *sparse.CSR) bool {
+	if m.Val == nil {
+		return m.Unit <= 0
+	}
+	for _, v := range m.Val {
+		if v > 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // isRealVec reports whether every imaginary part of x is zero.

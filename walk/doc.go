@@ -37,7 +37,13 @@
 // 4. A step Δt costs about aΔt + O((aΔt)^{1/3} log(1/ε)) products and three
 // vectors of memory; the reported error bound is the sum of the neglected
 // Bessel coefficients, rigorous up to rounding. It is the method for large
-// graphs and long times.
+// graphs and long times. The classical series needs only about
+// √(2aΔt·ln(1/ε)) terms (e^{−x}I_k(x) falls like e^{−k²/2x}), so for γL
+// stored as a CSR matrix the rigorous Gershgorin interval [0, 2γ·max degree]
+// is used instead of the Lanczos estimate. A series whose result breaks
+// norm conservation (quantum), contraction or positivity (classical) reveals
+// an interval that misses part of the spectrum; the interval is then widened
+// and the step repeated.
 //
 // Krylov (Saad, SIAM J. Numer. Anal. 29, 209 (1992); step control after
 // Sidje, ACM TOMS 24, 130 (1998)) projects onto a Lanczos space of up to 30

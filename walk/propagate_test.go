@@ -333,3 +333,19 @@ func TestAutoChoices(t *testing.T) {
 }
 
 var _ Operator = (*sparse.CSR)(nil)
+
+// TestChebyshevWidensClassical is TestChebyshevWidens for the classical
+// walk: a too-narrow interval for γL makes the series grow, which the
+// contraction check catches.
+func TestChebyshevWidensClassical(t *testing.T) {
+	g := graph(t, 101, chainBonds(101, false), nil)
+	c := newChebyshev(g.Laplacian(1), true, interval{lo: 0, hi: 2.5}) // true spectrum ≈ [0, 4]
+	psi := basis(101, 50)
+	_, _, err := c.step(context.Background(), psi, 6, 1e-10)
+	require.NoError(t, err)
+	assert.Greater(t, 2*c.a, 4*0.999)
+	// p_n = e^{−2t} I_n(2t) (references.md, classical line).
+	for j := 20; j <= 80; j++ {
+		assert.InDelta(t, scaledISeries(abs(j-50), 12), real(psi[j]), 1e-10, "site %d", j)
+	}
+}
