@@ -8,33 +8,25 @@ import (
 )
 
 // jobBytes estimates the memory of a walk job on g: the graph and its
-// Hamiltonian (lattice.EstimateBytes, plus weights when the graph is
-// weighted or disordered), the propagator's vectors for each realisation
-// running at once (16 bytes per site per vector: about 8 vectors for
-// Chebyshev, 40 for a Krylov basis, 2n² complex entries for exact
-// diagonalisation), and the stored outputs of every realisation.
+// Hamiltonian (lattice.EstimateBytes, plus stored values when the graph is
+// weighted or disordered), the propagator's vectors (EstimateBytes) for
+// each realisation running at once, the dense eigensystem of an exact
+// average, and the stored outputs of every realisation.
 func (j *Job) jobBytes(g *lattice.Graph) int64 {
 	n, m := int64(g.Len()), int64(g.NumBonds())
 	T := int64(len(j.Times))
-	// The graph: positions, bond ends, CSR row starts and columns (the
-	// formula of lattice.EstimateBytes).
-	b := 8*n*int64(g.Dim()) + 8*m + 4*(n+1) + 8*m
+	b := lattice.EstimateBytes(g.Len(), g.NumBonds(), g.Dim())
 	b += 8*m + 16*2*m // weights and stored CSR values (weighted or disordered copies)
 	_, nr := j.realisations()
 	conc := int64(min(nr, workersFor(0)))
-	var vec int64
-	switch j.Method {
-	case Exact:
-		vec = 2*16*n*n + 16*n*8
-	case Krylov:
-		vec = 16 * n * 40
-	default:
-		vec = 16 * n * 8
-	}
+	vec := EstimateBytes(g.Len(), 2*g.NumBonds(), j.Method)
 	if j.reports("average") && j.Window == nil {
 		vec += 2 * 16 * n * n
 	}
-	b += conc * vec
+	if j.reports("correlations") {
+		vec += 16 * T * n // the second particle's stored states
+	}
+	b += conc * (vec + 8*n) // plus the probability scratch
 	out := int64(0)
 	for _, r := range []string{"msd", "return", "spread", "ipr", "entropy", "participation"} {
 		if j.reports(r) {
@@ -45,11 +37,9 @@ func (j *Job) jobBytes(g *lattice.Graph) int64 {
 		out += 8 * T * n
 	}
 	if j.reports("correlations") {
-		out += 8*T*n*n + 16*T*n
+		out += 8 * T * n * n
 	}
-	b += int64(nr) * out
-	b += 8 * n * conc // probability scratch
-	return b
+	return b + int64(nr)*out
 }
 
 // checkSize refuses jobs beyond the stated limits or the memory limit.
