@@ -110,8 +110,9 @@ type Sector struct {
 //
 // Errors (field "symmetry[j]"): a permutation of the wrong length or not a
 // bijection, one that does not leave H invariant, generators that do not
-// commute, a group of more than 2^20 elements; "lattice" too-large when the
-// largest block exceeds MaxDense.
+// commute, a group of more than 2^20 elements; "lattice" too-large when a
+// block exceeds MaxDense or the memory limit, or when the vectors asked for
+// (n² complex values in all) exceed the memory limit.
 func Sectors(g *lattice.Graph, gamma float64, syms []Symmetry, vectors bool) ([]Sector, error) {
 	if err := checkGamma(gamma); err != nil {
 		return nil, err
@@ -146,12 +147,19 @@ func Sectors(g *lattice.Graph, gamma float64, syms []Symmetry, vectors bool) ([]
 			}
 		}
 	}
+	limit := fault.MemoryLimit()
+	if vectors {
+		// The sectors' vectors together fill an n×n complex matrix.
+		if b, lim := 16*int64(n)*int64(n), limit; b > lim {
+			return nil, fault.Large("lattice", b, lim)
+		}
+	}
 	orb := orbits(syms, orders, n)
 	h := g.Hamiltonian(gamma)
 	var out []Sector
 	label := make([]int, r)
 	for {
-		sec, err := sector(h, orb, orders, label, vectors)
+		sec, err := sector(h, orb, orders, label, vectors, limit)
 		if err != nil {
 			return nil, err
 		}
@@ -322,17 +330,18 @@ func stabKey(d []int) string {
 	return string(b)
 }
 
-// phase returns Σ_j a_j q_j / m_j, the character's angle over 2π.
+// phase returns Σ_j a_j q_j / m_j mod 1, the character's angle over 2π,
+// reduced in integers first so that large orders lose no accuracy.
 func phase(a, q, m []int) float64 {
 	var s float64
 	for j := range a {
-		s += float64(a[j]*q[j]) / float64(m[j])
+		s += float64(int64(a[j])*int64(q[j])%int64(m[j])) / float64(m[j])
 	}
-	return s
+	return s - math.Floor(s)
 }
 
 // sector builds and diagonalises the block of label q; nil when empty.
-func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool) (*Sector, error) {
+func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int64) (*Sector, error) {
 	n := h.N
 	// Admissible orbits: the character is trivial on the stabiliser.
 	idx := make([]int, len(o.rep))
@@ -359,7 +368,7 @@ func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool) (*Sector,
 		return nil, &fault.Error{Kind: fault.TooLarge, Field: "lattice",
 			Msg: "a symmetry sector has " + strconv.Itoa(d) + " states, more than the " + strconv.Itoa(MaxDense) + " a dense diagonalisation accepts"}
 	}
-	if b, lim := denseBytes(d, false, vectors), fault.MemoryLimit(); b > lim {
+	if b, lim := denseBytes(d, false, vectors), limit; b > lim {
 		return nil, fault.Large("lattice", b, lim)
 	}
 	// coef(t) = χ_q(a_t)* / √|O_t|, the component of the orbit's basis vector on t.

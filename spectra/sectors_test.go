@@ -202,3 +202,23 @@ func TestSectorsCarpetRotation(t *testing.T) {
 	require.NoError(t, err)
 	requireClose(t, full, unionValues(secs), 1e-10)
 }
+
+func TestSectorsLargeRing(t *testing.T) {
+	// Beyond MaxDense sites a dense diagonalisation is refused, but the
+	// momentum sectors of a ring are 1×1: 2cos(2πq/N) (references.md [derived]).
+	n := MaxDense + 7
+	g := cycleGraph(t, n)
+	_, err := Eigenvalues(g, 1)
+	require.Error(t, err)
+	secs, err := Sectors(g, 1, []Symmetry{Translation(n)}, false)
+	require.NoError(t, err)
+	require.Len(t, secs, n)
+	for _, q := range []int{0, 1, n / 3, n - 1} {
+		require.InDelta(t, 2*math.Cos(2*math.Pi*float64(q)/float64(n)), secs[q].Values[0], 1e-12)
+	}
+	t.Setenv("AMPWALK_MEMORY_LIMIT", "100000")
+	_, err = Sectors(cycleGraph(t, 200), 1, []Symmetry{Translation(200)}, true)
+	var fe *InputError
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "too-large", fe.Kind.String())
+}
