@@ -37,3 +37,22 @@ func kern6x8(k int, a, b, c []float64, ldc int) {
 	}
 	kern6x8go(k, a, b, c, ldc)
 }
+
+//go:noescape
+func symvRowAVX(n int, row, xs, ys *float64, xi float64) (dot float64)
+
+// symvRow is the fused kernel: s += Σ row[j]·xs[j]; ys[j] += row[j]·xi.
+func symvRow(row, xs, ys []float64, xi float64, s *float64) {
+	n := len(row)
+	if !hasAVX2FMA || n < 8 {
+		symvRowGo(row, xs, ys, xi, s)
+		return
+	}
+	n8 := n &^ 7
+	_ = xs[n-1]
+	_ = ys[n-1]
+	*s += symvRowAVX(n8, &row[0], &xs[0], &ys[0], xi)
+	if n8 < n {
+		symvRowGo(row[n8:], xs[n8:n], ys[n8:n], xi, s)
+	}
+}

@@ -3,3 +3,5 @@
 package dense
 
 func kern6x8(k int, a, b, c []float64, ldc int) { kern6x8go(k, a, b, c, ldc) }
+
+func symvRow(row, xs, ys []float64, xi float64, s *float64) { symvRowGo(row, xs, ys, xi, s) }

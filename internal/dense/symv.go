@@ -69,8 +69,10 @@ func symvRows(r0, r1, m int, a []float64, lda int, x, y []float64) {
 	}
 }
 
-// symvRow is the fused kernel: s += Σ row[j]·xs[j]; ys[j] += row[j]·xi.
-func symvRow(row, xs, ys []float64, xi float64, s *float64) {
+// symvRowGo is the portable fused kernel, the reference loop
+//
+//	for j, r := range row { *s += r*xs[j]; ys[j] += r*xi }
+func symvRowGo(row, xs, ys []float64, xi float64, s *float64) {
 	var s0, s1, s2, s3 float64
 	n := len(row)
 	xs = xs[:n]
