@@ -1,0 +1,146 @@
+package walk
+
+// JobFormatExtensions documents the JSON job format as this package
+// implements it: the contract in ../shared/spec/job-format.md (binding; every
+// field, default, output and error code listed there works exactly as
+// written) and the extensions below. The same text, with examples, is in
+// examples/notebook/README.md for notebook users.
+//
+// # Transport
+//
+// Serve(ctx, r, w, log) reads one JSON object per line and writes one per
+// line, in request order, each with the request's "id" (also on error lines
+// whenever the id could be read; "" otherwise). Blank lines are skipped. A
+// bad line produces an error line and the loop goes on. Logs and progress go
+// to log only. The bridge binary (examples/bridge) runs Serve on
+// stdin/stdout/stderr and exits 0 at end of input, 1 when stdin cannot be
+// read (or stdout written), 130 on SIGINT/SIGTERM after answering the job in
+// flight with "cancelled".
+//
+// # Decoding
+//
+// Decoding is strict: a key the format does not define is "unknown-field",
+// named with its dotted path ("lattice.generaton", "disorder.onsit"); a
+// lattice parameter the kind does not take is also "unknown-field". Values
+// of the wrong type or out of range are "invalid" with the path
+// ("lattice.generation", "times[3]", "start.near[1]", "lattice.bonds[2]").
+// Integer fields accept JSON numbers only when integral (3, 3.0, 3e0). A key
+// given twice in one object is "invalid". null means "the default". A line
+// that is not JSON, or not a JSON object, is "malformed".
+//
+// # Request fields (walk jobs)
+//
+//	id         string, default ""
+//	lattice    required; {"kind": …, parameters} (kinds below)
+//	hopping    γ, finite, default 1 (classical: ≥ 0, it is a rate)
+//	start      required; {"site": i} or {"near": [x, y, …]} (nearest site,
+//	           ties to the lowest index); extension: "second": j and
+//	           "statistics": "bosons" (default) | "fermions" |
+//	           "distinguishable" for the "correlations" report
+//	dynamics   "quantum" (default) | "classical"
+//	times      list of non-negative non-decreasing times (at most 100000), or
+//	           {"from": a, "to": b, "count": n, "spacing": "linear"|"log"}
+//	           (count default 50, spacing default "linear"; log needs a > 0;
+//	           both include a and b exactly; the response echoes the
+//	           expanded list)
+//	tolerance  target 2-norm error of the state, in (0, 0.1], default 1e-10
+//	method     "auto" (default) | "exact" | "krylov" | "chebyshev"
+//	report     default ["msd", "return"]; names below
+//	remove     site indices deleted first; response gets "kept"
+//	disorder   {"onsite": W, "bond": V, "law": "box"|"gauss",
+//	           "realisations": n (1…100000, default 1), "seed": s (default 0),
+//	           "first": k (extension, default 0)}; realisation k draws from
+//	           rand.New(rand.NewPCG(seed, k)), realisations first … first+n−1,
+//	           so {"first": k, "realisations": 1} recomputes realisation k
+//	           alone, bit for bit. Disorder jobs run each realisation on one
+//	           thread and realisations in parallel (GOMAXPROCS), combined in
+//	           realisation order. Classical dynamics refuses bond disorder
+//	           that can make a rate negative (gauss, or box with V > 2).
+//	fit        {"quantity": "msd"|"spread", "from": t1, "to": t2,
+//	           "segments": 1…8}; default msd, all reported t > 0, 4
+//	window     extension: {"to": T, "samples": m (default 200)} turns the
+//	           "average" report into the finite-time average (1/T)∫₀^T p dt by
+//	           the trapezoidal rule on m+1 equally spaced times
+//
+// # Lattice kinds
+//
+// Contract kinds: chain {sites, periodic}, square {width, height, periodic},
+// triangle {side}, gasket {generation}, carpet {generation, variant:
+// "cells"|"corners"}, hypercube {dimension}, graph {sites, bonds [[i,j]] or
+// [[i,j,w]], positions (optional; default site i at (i, 0)), onsite
+// (optional)}. Extension kinds (site order and positions as documented by
+// the lattice builder named): ring {sites ≥ 3} (Chain periodic);
+// triangular {width, height, periodic} (TriangularPatch); honeycomb, kagome,
+// lieb {width, height, periodic}; cubic {width, height, depth, periodic};
+// complete {sites}; star {leaves}; cayley {coordination, shells}
+// (CayleyTree); vicsek {generation}; tfractal {generation}; fibonacci
+// {sites, weak (default 0.5), strong (default 1)}; harper {sites, lambda
+// (default 2), beta (default (√5−1)/2), phase (default 0)}. Ranges are the
+// builders'; their errors name "lattice.<parameter>".
+//
+// # Report names and response fields
+//
+//	msd            "msd": Σ_j p_j ‖r_j − r_start‖² per time
+//	return         "return": p_start(t)
+//	populations    "populations": p_j(t) per time (refused with too-large
+//	               beyond MaxPopulationValues = 4194304 numbers)
+//	spread         "spread": Σ_j p_j ‖r_j − r̄‖²
+//	ipr            "ipr": Σ_j p_j²
+//	entropy        "entropy": −Σ_j p_j ln p_j
+//	participation  extension "participation": 1/Σ_j p_j²
+//	polya          "polya": 1 − Π_k (1 − p_start(t_k)) over reported t_k > 0
+//	regimes        "regimes" [{from, to, exponent, error, kind, prefactor}],
+//	               "crossovers" [{time, low, high}] (95% intervals),
+//	               "local_exponent" (smoothed d ln y/d ln t) and extension
+//	               "fit_times" (the times it is given at: the reported times
+//	               t > 0 with y > 0 inside the fit window). Kinds: decreasing,
+//	               saturated, sub-diffusive, diffusive, super-diffusive,
+//	               ballistic, super-ballistic (observables.Classify).
+//	average        "average": {"return": p̄_start} plus "populations" when
+//	               populations are reported. Quantum: exact infinite-time
+//	               average from the eigensystem (degenerate levels summed as
+//	               projections), refused with too-large above MaxExactSites =
+//	               4096 sites unless "window" is given. Classical: the uniform
+//	               distribution on the start's connected component (exact).
+//	               With a window: also "window" and "samples".
+//	correlations   extension "correlations": per time the n×n matrix Γ_qr of
+//	               two particles injected on start and start.second (quantum
+//	               only; refused above 4194304 numbers n²·times)
+//
+// Every response of a walk job has "id", "sites", "bonds", "times" and
+// "diagnostics" {method, products, norm_drift, error_bound, seconds,
+// reason (extension: why auto chose the method)}; over realisations products
+// are summed, drift and bound are maxima, and method is "mixed" if they
+// differ. With disorder, "realisations" gives the count and, when it is
+// above 1, every output X gets "X_err", the standard error of the mean
+// (populations_err, polya_err, average_err, correlations_err,
+// local_exponent_err); regimes are fitted per realisation and averaged
+// (observables.AverageRegimes), so each regime's "error" is the spread over
+// realisations.
+//
+// # Series and spectrum jobs
+//
+// {"series": {"times", "values", "errors"?}, "report": ["regimes"], "fit":
+// {"from", "to", "segments"}} runs the regime analysis on a given curve;
+// times strictly increasing and positive, values positive and finite, at
+// least 2 points (the fit itself needs 4 per segment); errors name
+// "series.values[k]" etc. A spectrum job has "spectrum" and a lattice
+// (optionally hopping, remove, disorder with one realisation) and no
+// start/times: eigenvalues (ascending; refused above MaxEigenvalueSites =
+// 8192 sites), dos {bins (200), method "exact"|"kpm" (default kpm),
+// moments (512), vectors (10), seed (0)} → {"energy", "density", "method"},
+// ratio → {mean, used, degenerate} (spacings below 1e-9 of the spectral
+// width are degeneracies), box_dimension → {dimension, error, smallest,
+// largest}.
+//
+// # Errors and limits
+//
+// Codes: invalid, unknown-field, too-large (the message gives the estimate
+// in bytes), malformed, numerical (a propagation or fit failed its own
+// check, a value came out non-finite, or an internal failure was
+// recovered), cancelled. too-large applies to "exact" above MaxExactSites,
+// the memory estimate (graph + propagator + outputs, for every realisation
+// running at once) above fault.MemoryLimit (AMPWALK_MEMORY_LIMIT bytes, or
+// 80% of the machine's memory), and the output limits above. No response
+// ever holds NaN or a partial result.
+const JobFormatExtensions = "ampwalk job format: ../shared/spec/job-format.md plus the extensions documented in walk/job_doc.go and examples/notebook/README.md"
