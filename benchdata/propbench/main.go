@@ -3,8 +3,8 @@
 // the corner near (0, 0) (the square lattice: its centre), propagate with
 // walk.QuantumWalk by the Chebyshev method to a list of reported times, and
 // record the mean squared displacement. It prints the matrix–vector
-// products beside a·t_max (a, the spectral half-width, from 40 Lanczos
-// steps), the wall time, the memory estimate and the peak resident set, and
+// products beside a·t_max (a, the spectral half-width, from the extreme
+// Ritz values of 80 Lanczos steps), the wall time, the memory estimate and the peak resident set, and
 // writes the MSD and those numbers as JSON to -out.
 //
 // With -graph PREFIX it also writes the bonds and positions in binary
@@ -59,7 +59,7 @@ func main() {
 		fmt.Printf("graph written (build %.3f s)\n", r.BuildSeconds)
 		return
 	}
-	fmt.Printf("method %s, products %d, a=%.6g (Lanczos), a·t_max=%.6g, ratio %.3f\n",
+	fmt.Printf("method %s, products %d, a=%.6g (Ritz), a·t_max=%.6g, ratio %.3f\n",
 		r.Method, r.Products, r.HalfWidth, r.ATMax, r.Ratio)
 	fmt.Printf("build %.3f s, propagate %.3f s, workers %d, norm drift %.2g, error bound %.2g\n",
 		r.BuildSeconds, r.PropSeconds, r.Workers, r.NormDrift, r.ErrorBound)
