@@ -106,12 +106,62 @@ func Histogram(values []float64, bins int) (DOS, error) {
 	return DOS{Energy: e, Density: d, Width: w, Lo: a, Hi: a + w*float64(bins)}, nil
 }
 
+// WeightedHistogram is Histogram with level k carrying weight weights[k]
+// (non-negative, not all zero) instead of 1: the density integrates to 1
+// over the bins. With the eigenvector weights |ψ_k(i)|² of one site it is
+// the exact local density of states at that site (see LocalHistogram).
+// Errors name "dos.bins", "eigenvalues" and "weights".
+func WeightedHistogram(values, weights []float64, bins int) (DOS, error) {
+	if err := checkBins(bins); err != nil {
+		return DOS{}, err
+	}
+	if err := checkValues(values); err != nil {
+		return DOS{}, err
+	}
+	if len(weights) != len(values) {
+		return DOS{}, fault.New("weights", "must have one value per level (%d); got %d", len(values), len(weights))
+	}
+	var total float64
+	for k, w := range weights {
+		if !(w >= 0) || math.IsInf(w, 0) {
+			return DOS{}, fault.New("weights", "must be non-negative and finite; weight %d is %v", k, w)
+		}
+		total += w
+	}
+	if !(total > 0) {
+		return DOS{}, fault.New("weights", "must not all be zero")
+	}
+	lo, hi := minMax(values)
+	e, w, a := grid(bins, lo, hi)
+	d := make([]float64, bins)
+	for k, v := range values {
+		b := min(max(int((v-a)/w), 0), bins-1)
+		d[b] += weights[k] / (total * w)
+	}
+	return DOS{Energy: e, Density: d, Width: w, Lo: a, Hi: a + w*float64(bins)}, nil
+}
+
+// LocalHistogram returns the exact local density of states
+// ρ_i(E) = Σ_n |ψ_n(i)|² δ(E − E_n) at site i of the eigensystem e, binned
+// like Histogram (over the whole spectrum's range). Errors name "dos.site"
+// and "dos.bins".
+func LocalHistogram(e *Eigen, site, bins int) (DOS, error) {
+	if site < 0 || site >= e.N {
+		return DOS{}, fault.Range("dos.site", "between 0 and "+itoa(e.N-1), site)
+	}
+	w := make([]float64, e.N)
+	for k := range w {
+		w[k] = e.Weight(site, k)
+	}
+	return WeightedHistogram(e.Values, w, bins)
+}
+
 // Broadened returns the density of states of the levels values, each
 // replaced by a line of the given shape and width, sampled at bins centres
 // spanning [min − 5w, max + 5w]. The samples are rescaled so that the
 // density integrates to 1 over the bins (the tails beyond the grid, and the
 // sampling error, are redistributed; the correction is small when width
-// spans several bins).
+// spans several bins). Cost O(bins·n).
 func Broadened(values []float64, bins int, width float64, shape Shape) (DOS, error) {
 	if err := checkBins(bins); err != nil {
 		return DOS{}, err
@@ -172,11 +222,14 @@ func (d DOS) Integrated() []float64 {
 
 // Counting returns the exact integrated density of states of the levels
 // values at each energy of at: the fraction of levels ≤ at[k]. values need
-// not be sorted.
+// not be sorted; with no values every fraction is 0.
 func Counting(values, at []float64) []float64 {
 	v := append([]float64(nil), values...)
 	sort.Float64s(v)
 	out := make([]float64, len(at))
+	if len(v) == 0 {
+		return out
+	}
 	for k, e := range at {
 		out[k] = float64(sort.Search(len(v), func(i int) bool { return v[i] > e })) / float64(len(v))
 	}

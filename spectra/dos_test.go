@@ -73,3 +73,26 @@ func TestDOSErrors(t *testing.T) {
 		require.Equal(t, c.field, fe.Field, "case %d", i)
 	}
 }
+
+func TestLocalHistogram(t *testing.T) {
+	// The path P_3 has levels −√2, 0, √2 with end-site weights 1/4, 1/2, 1/4
+	// (eigenvectors (1, ∓√2, 1)/2 and (1, 0, −1)/√2, common practice).
+	e, err := Eigensystem(pathGraph(t, 3), 1)
+	require.NoError(t, err)
+	d, err := LocalHistogram(e, 0, 3)
+	require.NoError(t, err)
+	w := 2 * math.Sqrt2 / 3
+	require.InDeltaSlice(t, []float64{0.25 / w, 0.5 / w, 0.25 / w}, d.Density, 1e-12)
+	require.InDelta(t, 1, integral(d), 1e-12)
+	var fe *InputError
+	_, err = LocalHistogram(e, 3, 3)
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "dos.site", fe.Field)
+	_, err = WeightedHistogram([]float64{1, 2}, []float64{0, 0}, 2)
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, "weights", fe.Field)
+	_, err = WeightedHistogram([]float64{1, 2}, []float64{1}, 2)
+	require.True(t, errors.As(err, &fe))
+	require.Equal(t, []float64{0, 0}, Counting(nil, []float64{1, 2}))
+	require.Nil(t, Jackson(0))
+}

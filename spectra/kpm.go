@@ -85,8 +85,11 @@ func (s *KPMSettings) fill() error {
 //	g_n = [(M−n+1) cos(πn/(M+1)) + sin(πn/(M+1)) cot(π/(M+1))] / (M+1).
 //
 // It damps the Gibbs oscillations of the truncated Chebyshev series and
-// keeps the reconstructed density positive.
+// keeps the reconstructed density positive. m < 1 gives nil.
 func Jackson(m int) []float64 {
+	if m < 1 {
+		return nil
+	}
 	g := make([]float64, m)
 	q := math.Pi / float64(m+1)
 	cot := math.Cos(q) / math.Sin(q)

@@ -32,6 +32,8 @@ type RatioStats struct {
 	Used int
 	// Degenerate counts the spacings ≤ tol left out.
 	Degenerate int
+	// Invalid counts non-finite values (NaN, ±Inf) ignored.
+	Invalid int
 }
 
 // SpacingRatio returns the mean ratio of consecutive level spacings of
@@ -41,14 +43,22 @@ type RatioStats struct {
 // degenerate cluster acts as one level), and r̃ is averaged over the pairs
 // of consecutive remaining spacings. The ratio needs no unfolding, but it is
 // meaningful only within one symmetry sector: levels of independent sectors
-// overlap like Poisson levels. A negative or NaN tol counts as 0.
+// overlap like Poisson levels. A negative or NaN tol counts as 0; non-finite
+// values are ignored and counted in Invalid.
 func SpacingRatio(values []float64, tol float64) RatioStats {
 	if !(tol >= 0) {
 		tol = 0
 	}
-	v := append([]float64(nil), values...)
-	sort.Float64s(v)
 	var st RatioStats
+	v := make([]float64, 0, len(values))
+	for _, x := range values {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			st.Invalid++
+			continue
+		}
+		v = append(v, x)
+	}
+	sort.Float64s(v)
 	prev := -1.0
 	var sum, sum2 float64
 	for i := 1; i < len(v); i++ {

@@ -65,6 +65,7 @@ func TestSpacingRatioDegenerate(t *testing.T) {
 	require.Equal(t, RatioStats{Mean: 0.5, Error: 0, Used: 2, Degenerate: 3}, st)
 	require.Equal(t, RatioStats{Degenerate: 2}, SpacingRatio([]float64{1, 1, 1}, 0))
 	require.Equal(t, 2, SpacingRatio([]float64{1, 1, 1}, math.NaN()).Degenerate)
+	require.Equal(t, RatioStats{Mean: 0.5, Used: 1, Invalid: 2}, SpacingRatio([]float64{0, math.NaN(), 1, 3, math.Inf(1)}, 0))
 }
 
 func TestSpacingRatioGasketDegeneracies(t *testing.T) {
