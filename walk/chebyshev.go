@@ -87,7 +87,7 @@ func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64)
 		if err := ctx.Err(); err != nil {
 			return prods, errSum, cancelled(err)
 		}
-		p, e, err := c.segment(psi, h, tol/float64(nseg))
+		p, e, err := c.segment(ctx, psi, h, tol/float64(nseg))
 		prods += p
 		errSum += e
 		if err != nil {
@@ -100,7 +100,7 @@ func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64)
 // segment advances psi by h as one series; when the result fails the norm
 // check (the spectral interval was too narrow), it widens the interval and
 // repeats.
-func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, error) {
+func (c *chebyshev) segment(ctx context.Context, psi []complex128, h, tol float64) (int, float64, error) {
 	norm := nrm2(psi)
 	if norm == 0 {
 		return 0, 0, nil
@@ -108,10 +108,14 @@ func (c *chebyshev) segment(psi []complex128, h, tol float64) (int, float64, err
 	var prods int
 	for try := 0; ; try++ {
 		K, bound := c.coefficients(h, tol/norm)
+		var err error
 		if c.realOK && isRealVec(psi) {
-			c.seriesReal(psi, K)
+			err = c.seriesReal(ctx, psi, K)
 		} else {
-			c.series(psi, K)
+			err = c.series(ctx, psi, K)
+		}
+		if err != nil {
+			return prods, 0, err
 		}
 		prods += K
 		after := nrm2(c.acc)
@@ -225,7 +229,7 @@ func (c *chebyshev) coefficients(h, eps float64) (int, float64) {
 }
 
 // series sets c.acc = Σ_{k≤K} coef_k T_k(H̃) psi, leaving psi unchanged.
-func (c *chebyshev) series(psi []complex128, K int) {
+func (c *chebyshev) series(ctx context.Context, psi []complex128, K int) error {
 	coef := c.coef[:K+1]
 	c0 := coef[0]
 	acc := c.acc
@@ -233,24 +237,33 @@ func (c *chebyshev) series(psi []complex128, K int) {
 		acc[i] = c0 * v
 	}
 	if K == 0 {
-		return
+		return nil
 	}
 	s := 1 / c.a
 	c.first(c.t1, psi, s, coef[1])
 	if K == 1 {
-		return
+		return nil
 	}
 	c.next(c.t2, c.t1, psi, s, coef[2])
 	prev, cur := c.t1, c.t2
 	for k := 3; k <= K; k++ {
+		if k%cancelEvery == 0 {
+			if err := ctx.Err(); err != nil {
+				return cancelled(err)
+			}
+		}
 		c.next(prev, cur, prev, s, coef[k])
 		prev, cur = cur, prev
 	}
+	return nil
 }
+
+// cancelEvery is the number of series terms between context checks.
+const cancelEvery = 64
 
 // seriesReal is series for a real state and real coefficients (the
 // classical walk), on float64 vectors with the real kernels.
-func (c *chebyshev) seriesReal(psi []complex128, K int) {
+func (c *chebyshev) seriesReal(ctx context.Context, psi []complex128, K int) error {
 	n := len(psi)
 	if c.r0 == nil {
 		c.r0, c.r1, c.r2, c.racc = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
@@ -275,6 +288,11 @@ func (c *chebyshev) seriesReal(psi []complex128, K int) {
 		c.csr.ChebNextReal(c.r2, c.r1, r0, acc, s, c.b, co[2])
 		prev, cur := c.r1, c.r2
 		for k := 3; k <= K; k++ {
+			if k%cancelEvery == 0 {
+				if err := ctx.Err(); err != nil {
+					return cancelled(err)
+				}
+			}
 			c.csr.ChebNextReal(prev, cur, prev, acc, s, c.b, co[k])
 			prev, cur = cur, prev
 		}
@@ -282,6 +300,7 @@ func (c *chebyshev) seriesReal(psi []complex128, K int) {
 	for i, v := range acc {
 		c.acc[i] = complex(v, 0)
 	}
+	return nil
 }
 
 // minReal returns the smallest real part in x.

@@ -12,7 +12,8 @@ import (
 )
 
 // lanczos is the Hermitian Lanczos process with full reorthogonalisation
-// (classical Gram–Schmidt applied twice against every stored basis vector).
+// (classical Gram–Schmidt against every stored basis vector, repeated once
+// when it cancels much of the norm).
 // After run, alpha[0:k] and beta[0:k] hold the tridiagonal matrix T_k
 // (beta[j] couples v_j and v_{j+1}, so beta[k-1] is the residual norm
 // ‖H V_k − V_k T_k‖) and v[0:k] the orthonormal basis.
@@ -67,14 +68,28 @@ func (l *lanczos) run(ctx context.Context, v0 []complex128, norm float64) (k, pr
 			return j, products, numerical("the operator produced a non-finite value")
 		}
 		scale = math.Max(scale, math.Abs(a))
-		// Two passes of classical Gram–Schmidt against the whole basis.
+		// The three-term recurrence, then classical Gram–Schmidt against
+		// the whole basis, repeated when that pass cancelled more than 30%
+		// of the norm (the criterion of
+		// Daniel, Gragg, Kaufman & Stewart, Math. Comp. 30, 772 (1976)
+		// (from memory): "twice is enough").
+		axpy(w, complex(-a, 0), l.v[j])
+		if j > 0 {
+			axpy(w, complex(-l.beta[j-1], 0), l.v[j-1])
+		}
+		before := nrm2(w)
+		var b float64
 		for pass := 0; pass < 2; pass++ {
 			for q := 0; q <= j; q++ {
 				c := dot(l.v[q], w)
 				axpy(w, -c, l.v[q])
 			}
+			b = nrm2(w)
+			if b > 0.7*before {
+				break
+			}
+			before = b
 		}
-		b := nrm2(w)
 		l.beta[j] = b
 		scale = math.Max(scale, b)
 		if b <= breakdown*scale {

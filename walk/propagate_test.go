@@ -349,3 +349,33 @@ func TestChebyshevWidensClassical(t *testing.T) {
 		assert.InDelta(t, scaledISeries(abs(j-50), 12), real(psi[j]), 1e-10, "site %d", j)
 	}
 }
+
+// countCtx reports cancellation from its (after+1)-th Err call on, so a test
+// can cancel deep inside a long step without timing.
+type countCtx struct {
+	context.Context
+	calls, after int
+}
+
+func (c *countCtx) Err() error {
+	c.calls++
+	if c.calls > c.after {
+		return context.Canceled
+	}
+	return nil
+}
+
+// TestCancelInsideLongStep checks that one long step (a·t ≈ 4000, many
+// series segments or Krylov spaces) stops at a context check inside it.
+func TestCancelInsideLongStep(t *testing.T) {
+	g := graph(t, 3000, chainBonds(3000, false), nil)
+	for _, m := range []Method{Krylov, Chebyshev} {
+		ctx := &countCtx{Context: context.Background(), after: 6}
+		d, err := Propagate(ctx, g.Hamiltonian(1), Quantum, basis(3000, 1500), []float64{1000}, Settings{Method: m}, func(int, float64, []complex128) error {
+			t.Fatal("no state may be reported after cancellation")
+			return nil
+		})
+		require.ErrorIs(t, err, context.Canceled, "%v", m)
+		assert.Less(t, d.Products, 1000, "%v: stopped early", m)
+	}
+}
