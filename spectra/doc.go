@@ -22,11 +22,12 @@
 //   - dense.go: Eigenvalues, Eigensystem, LaplacianEigenvalues of a graph by
 //     dense diagonalisation (SymEigen, HermEigen in eigen.go), refused beyond
 //     MaxDense sites or the memory limit.
-//   - dos.go, kpm.go, bounds.go: densities of states — Histogram (exact),
-//     Broadened (Lorentzian, Gaussian), KPM and LocalDOS (kernel polynomial
-//     method with the Jackson kernel, Weiße et al., Rev. Mod. Phys. 78, 275
-//     (2006)), spectral Bounds from a few Lanczos steps, Counting and
-//     DOS.Integrated for integrated densities.
+//   - dos.go, kpm.go, bounds.go: densities of states — Histogram,
+//     WeightedHistogram and LocalHistogram (exact), Broadened (Lorentzian,
+//     Gaussian), KPM, KPMContext and LocalDOS (kernel polynomial method with
+//     the Jackson kernel, Weiße et al., Rev. Mod. Phys. 78, 275 (2006)),
+//     spectral Bounds from a few Lanczos steps, Counting and DOS.Integrated
+//     for integrated densities.
 //   - ratio.go: SpacingRatio (mean r̃ with degeneracies counted) and Unfold.
 //   - states.go: IPR, Participation and the energy-window map WindowMap.
 //   - box.go: BoxDimension, the box-counting dimension of a (weighted) point set.

@@ -75,6 +75,9 @@ func (s *KPMSettings) fill() error {
 	if math.IsNaN(s.Lo) || math.IsNaN(s.Hi) || math.IsInf(s.Lo, 0) || math.IsInf(s.Hi, 0) {
 		return fault.New("dos.bounds", "must be finite; got [%v, %v]", s.Lo, s.Hi)
 	}
+	if (s.Lo != 0 || s.Hi != 0) && !(s.Lo < s.Hi) {
+		return fault.New("dos.bounds", "must satisfy lo < hi (or both be 0 for Lanczos bounds); got [%v, %v]", s.Lo, s.Hi)
+	}
 	return nil
 }
 

@@ -137,6 +137,7 @@ func TestKPMSettingsErrors(t *testing.T) {
 		{KPMSettings{Vectors: -2}, "dos.vectors"},
 		{KPMSettings{Bins: -1}, "dos.bins"},
 		{KPMSettings{Lo: math.NaN()}, "dos.bounds"},
+		{KPMSettings{Lo: 2, Hi: 1}, "dos.bounds"},
 	} {
 		_, err := KPM(h, c.s)
 		require.True(t, errors.As(err, &fe))

@@ -222,3 +222,28 @@ func TestSectorsLargeRing(t *testing.T) {
 	require.True(t, errors.As(err, &fe))
 	require.Equal(t, "too-large", fe.Kind.String())
 }
+
+func TestSectorsFluxRing(t *testing.T) {
+	// A ring of 10 threaded by flux Φ (bond phases Φ/10): sector q holds
+	// 2cos(2πq/N − Φ/N) for ψ(x) ∝ e^{−2πiqx/N} (derived from the
+	// documented convention; Peierls substitution, common practice).
+	const n, phi = 10, 1.3
+	var b []lattice.Bond
+	for i := 0; i < n; i++ {
+		b = append(b, lattice.Bond{I: i, J: (i + 1) % n, W: 1, Phase: phi / n})
+	}
+	g := mustGraph(t, n, 1, nil, b)
+	secs, err := Sectors(g, 1, []Symmetry{Translation(n)}, false)
+	require.NoError(t, err)
+	for _, s := range secs {
+		require.InDelta(t, 2*math.Cos((2*math.Pi*float64(s.Label[0])-phi)/n), s.Values[0], 1e-12)
+	}
+	full, err := Eigenvalues(g, 1)
+	require.NoError(t, err)
+	requireClose(t, full, unionValues(secs), 1e-12)
+	// Reversing the flux on one bond breaks the translation symmetry.
+	b[3].Phase = -b[3].Phase
+	g2 := mustGraph(t, n, 1, nil, b)
+	_, err = Sectors(g2, 1, []Symmetry{Translation(n)}, false)
+	require.Error(t, err)
+}
