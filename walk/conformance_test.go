@@ -2,9 +2,11 @@ package walk
 
 import (
 	"context"
+	"encoding/json"
 	"math"
 	"math/cmplx"
 	"math/rand/v2"
+	"os"
 	"strconv"
 	"testing"
 
@@ -463,5 +465,53 @@ func TestConformance(t *testing.T) {
 				}
 			}
 		})
+	}
+}
+
+// TestConformanceSciPy runs every propagator against states made offline by
+// scipy.linalg.expm (SciPy 1.10.1, NumPy 1.24.2; script and data in
+// testdata/expm_ref.py and testdata/expm_ref.json) on two weighted graphs
+// with on-site energies and Peierls phases, quantum and classical.
+func TestConformanceSciPy(t *testing.T) {
+	raw, err := os.ReadFile("testdata/expm_ref.json")
+	require.NoError(t, err)
+	var ref struct {
+		Cases []struct {
+			Sites     int
+			Bonds     [][4]float64
+			Onsite    []float64
+			Start     int
+			Times     []float64
+			Quantum   [][][2]float64
+			Classical [][]float64
+		}
+	}
+	require.NoError(t, json.Unmarshal(raw, &ref))
+	require.Len(t, ref.Cases, 2)
+	for _, c := range ref.Cases {
+		bonds := make([]lattice.Bond, len(c.Bonds))
+		for k, b := range c.Bonds {
+			bonds[k] = lattice.Bond{I: int(b[0]), J: int(b[1]), W: b[2], Phase: b[3]}
+		}
+		g := graph(t, c.Sites, bonds, c.Onsite)
+		for _, dyn := range []Dynamics{Quantum, Classical} {
+			for _, m := range allMethods {
+				cc := confCase{g: g, gamma: 1, dyn: dyn, start: c.Start, times: c.Times}
+				states, _ := cc.run(t, m)
+				for k, psi := range states {
+					want := make([]complex128, c.Sites)
+					for j := range want {
+						if dyn == Quantum {
+							want[j] = complex(c.Quantum[k][j][0], c.Quantum[k][j][1])
+						} else {
+							want[j] = complex(c.Classical[k][j], 0)
+						}
+					}
+					// The default tolerance 1e-10 plus expm's own error
+					// (≈1e-13 at these norms; Al-Mohy & Higham 2009).
+					require.LessOrEqual(t, diffNorm(psi, want), 1e-10+1e-12, "n=%d %v %v t=%v", c.Sites, dyn, m, c.Times[k])
+				}
+			}
+		}
 	}
 }
