@@ -33,6 +33,9 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 		return d, fault.New("operator", "must be non-nil")
 	}
 	n := op.Len()
+	if n < 1 {
+		return d, fault.Range("operator", "an operator on at least one site", n)
+	}
 	if err := validate(n, dyn, psi0, times, &s); err != nil {
 		return d, err
 	}

@@ -379,3 +379,38 @@ func TestCancelInsideLongStep(t *testing.T) {
 		assert.Less(t, d.Products, 1000, "%v: stopped early", m)
 	}
 }
+
+type emptyOp struct{}
+
+func (emptyOp) Len() int                   { return 0 }
+func (emptyOp) MulVec(dst, x []complex128) {}
+
+// TestPropagateDegenerate covers an empty operator (an input error) and a
+// zero initial state (a valid, trivial input that stays zero).
+func TestPropagateDegenerate(t *testing.T) {
+	_, err := Propagate(context.Background(), emptyOp{}, Quantum, nil, []float64{1}, Settings{}, nil)
+	var ie *InputError
+	require.ErrorAs(t, err, &ie)
+	assert.Equal(t, "operator", ie.Field)
+	_, err = Propagate(context.Background(), nil, Quantum, nil, []float64{1}, Settings{}, nil)
+	require.ErrorAs(t, err, &ie)
+
+	g := graph(t, 40, chainBonds(40, false), nil)
+	for _, dyn := range []Dynamics{Quantum, Classical} {
+		for _, m := range allMethods {
+			op := g.Hamiltonian(1)
+			if dyn == Classical {
+				op = g.Laplacian(1)
+			}
+			d, err := Propagate(context.Background(), op, dyn, make([]complex128, 40), []float64{0.5, 3}, Settings{Method: m},
+				func(_ int, _ float64, psi []complex128) error {
+					for _, v := range psi {
+						require.Equal(t, complex128(0), v)
+					}
+					return nil
+				})
+			require.NoError(t, err, "%v %v", dyn, m)
+			assert.Equal(t, 0.0, d.NormDrift)
+		}
+	}
+}
