@@ -79,9 +79,12 @@ type RegimeSettings struct {
 
 // Regime is one power-law segment y ≈ Prefactor · t^Exponent on [From, To].
 type Regime struct {
-	From, To  float64
-	Exponent  float64
-	Error     float64 // one standard error of Exponent
+	From, To float64
+	Exponent float64
+	Error    float64 // one standard error of Exponent
+	// Prefactor is A of y ≈ A·t^Exponent. For extreme exponents far from
+	// t = 1 it can leave the float64 range: it is then clamped to
+	// math.MaxFloat64 (or underflows to 0), never Inf.
 	Prefactor float64
 	Kind      string
 }
@@ -317,7 +320,7 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 			To:        math.Exp(bounds[seg+1]),
 			Exponent:  slope,
 			Error:     math.Sqrt(math.Max(vs, 0)),
-			Prefactor: math.Exp(eta - slope*x0),
+			Prefactor: math.Min(math.Exp(eta-slope*x0), math.MaxFloat64),
 			Kind:      Classify(slope),
 		})
 	}
