@@ -35,8 +35,10 @@
 //     return-probability series.
 //   - bands.go, cells.go: UnitCell, Bloch Hamiltonians, Bands along k paths,
 //     Periodic finite lattices; square, triangular, honeycomb, kagome and Lieb cells.
-//   - sectors.go: Sectors of abelian symmetry groups (Translation,
-//     Reflection, SquareTranslations, PositionSymmetry).
+//   - sectors.go, dihedral.go: Sectors of abelian symmetry groups
+//     (Translation, Reflection, SquareTranslations, PositionSymmetry) and
+//     DihedralSectors adding a reflection that inverts them (D_n of rings,
+//     D_3 of gaskets, D_4 of carpets, inversion of periodic lattices).
 //
 // # Example
 //

@@ -94,6 +94,13 @@ type Sector struct {
 	// Vectors, when asked for, holds the eigenvectors in the full site
 	// basis: component i of vector k at i·len(Values) + k.
 	Vectors []complex128
+	// Copies is the number of sectors with this spectrum: 1, or 2 for a
+	// DihedralSectors sector q paired with −q (each level then appears twice
+	// in the full spectrum).
+	Copies int
+	// Parity is +1 or −1 for a DihedralSectors sector split by the
+	// reflection (ψ(σ(i)) = Parity·ψ(i)), 0 otherwise.
+	Parity int
 }
 
 // Sectors block-diagonalises H = γW + diag(ε) of g with the abelian group
@@ -122,30 +129,9 @@ func Sectors(g *lattice.Graph, gamma float64, syms []Symmetry, vectors bool) ([]
 	if r == 0 {
 		return nil, fault.New("symmetry", "must list at least one symmetry")
 	}
-	orders := make([]int, r)
-	size := 1
-	for j, s := range syms {
-		f := "symmetry[" + strconv.Itoa(j) + "]"
-		m, err := permOrder(s.Perm, n)
-		if err != nil {
-			return nil, fault.Prefix(f, err)
-		}
-		orders[j] = m
-		size *= m
-		if size > 1<<20 {
-			return nil, fault.New("symmetry", "the group may have at most 1048576 elements; the orders %v exceed it", orders[:j+1])
-		}
-		if err := invariant(g, s.Perm); err != nil {
-			return nil, fault.Prefix(f, err)
-		}
-		for k := 0; k < j; k++ {
-			q := syms[k].Perm
-			for i := 0; i < n; i++ {
-				if s.Perm[q[i]] != q[s.Perm[i]] {
-					return nil, fault.New(f, "must commute with symmetry[%d] (%s); they differ on site %d", k, syms[k].Name, i)
-				}
-			}
-		}
+	orders, err := checkSymmetries(g, syms)
+	if err != nil {
+		return nil, err
 	}
 	limit := fault.MemoryLimit()
 	if vectors {
@@ -342,10 +328,29 @@ func phase(a, q, m []int) float64 {
 
 // sector builds and diagonalises the block of label q; nil when empty.
 func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int64) (*Sector, error) {
-	n := h.N
-	// Admissible orbits: the character is trivial on the stabiliser.
-	idx := make([]int, len(o.rep))
-	d := 0
+	idx, d := admissible(o, orders, q)
+	if d == 0 {
+		return nil, nil
+	}
+	if err := checkBlock(d, vectors, limit); err != nil {
+		return nil, err
+	}
+	blk := block(h, o, orders, q, idx, d)
+	vals, vecs, err := HermEigen(blk, d, vectors)
+	if err != nil {
+		return nil, err
+	}
+	sec := &Sector{Label: append([]int(nil), q...), Orders: append([]int(nil), orders...), Values: vals, Copies: 1}
+	if vectors {
+		sec.Vectors = expand(h.N, o, orders, q, idx, vecs, d, d)
+	}
+	return sec, nil
+}
+
+// admissible numbers the orbits that carry sector q (the character is
+// trivial on the stabiliser): idx[b] is the basis index of orbit b, or −1.
+func admissible(o *orbitSet, orders, q []int) (idx []int, d int) {
+	idx = make([]int, len(o.rep))
 	for b := range o.rep {
 		idx[b] = -1
 		ok := true
@@ -361,21 +366,29 @@ func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int
 			d++
 		}
 	}
-	if d == 0 {
-		return nil, nil
-	}
+	return idx, d
+}
+
+func checkBlock(d int, vectors bool, limit int64) error {
 	if d > MaxDense {
-		return nil, &fault.Error{Kind: fault.TooLarge, Field: "lattice",
+		return &fault.Error{Kind: fault.TooLarge, Field: "lattice",
 			Msg: "a symmetry sector has " + strconv.Itoa(d) + " states, more than the " + strconv.Itoa(MaxDense) + " a dense diagonalisation accepts"}
 	}
-	if b, lim := denseBytes(d, false, vectors), limit; b > lim {
-		return nil, fault.Large("lattice", b, lim)
+	if b := denseBytes(d, false, vectors); b > limit {
+		return fault.Large("lattice", b, limit)
 	}
-	// coef(t) = χ_q(a_t)* / √|O_t|, the component of the orbit's basis vector on t.
-	coef := func(t int) complex128 {
-		f := phase(o.exp[t], q, orders)
-		return cmplx.Rect(1/math.Sqrt(float64(o.size[o.of[t]])), -2*math.Pi*f)
-	}
+	return nil
+}
+
+// coef returns χ_q(a_t)* / √|O_t|, the component on site t of its orbit's
+// basis vector in sector q.
+func (o *orbitSet) coef(t int, orders, q []int) complex128 {
+	f := phase(o.exp[t], q, orders)
+	return cmplx.Rect(1/math.Sqrt(float64(o.size[o.of[t]])), -2*math.Pi*f)
+}
+
+// block returns the d×d Hermitian block of H in the basis of sector q.
+func block(h *sparse.CSR, o *orbitSet, orders, q, idx []int, d int) []complex128 {
 	blk := make([]complex128, d*d)
 	for b, s := range o.rep {
 		a := idx[b]
@@ -385,7 +398,7 @@ func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int
 		// Block[a][·] = √|O_a| Σ_j H_{s,j} v_·(j).
 		w := complex(math.Sqrt(float64(o.size[b])), 0)
 		if h.Diag != nil {
-			blk[a*d+a] += w * complex(h.Diag[s], 0) * coef(s)
+			blk[a*d+a] += w * complex(h.Diag[s], 0) * o.coef(s, orders, q)
 		}
 		for k := h.RowPtr[s]; k < h.RowPtr[s+1]; k++ {
 			j := int(h.Col[k])
@@ -401,7 +414,7 @@ func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int
 			if h.Imag != nil {
 				im = h.Imag[k]
 			}
-			blk[a*d+c] += w * complex(v, im) * coef(j)
+			blk[a*d+c] += w * complex(v, im) * o.coef(j, orders, q)
 		}
 	}
 	// Rounding leaves the block Hermitian to ~1e-16; symmetrise it exactly.
@@ -412,23 +425,23 @@ func sector(h *sparse.CSR, o *orbitSet, orders, q []int, vectors bool, limit int
 			blk[i*d+j], blk[j*d+i] = z, cmplx.Conj(z)
 		}
 	}
-	vals, vecs, err := HermEigen(blk, d, vectors)
-	if err != nil {
-		return nil, err
-	}
-	sec := &Sector{Label: append([]int(nil), q...), Orders: append([]int(nil), orders...), Values: vals}
-	if vectors {
-		sec.Vectors = make([]complex128, n*d)
-		for t := 0; t < n; t++ {
-			c := idx[o.of[t]]
-			if c < 0 {
-				continue
-			}
-			ct := coef(t)
-			for k := 0; k < d; k++ {
-				sec.Vectors[t*d+k] = vecs[c*d+k] * ct
-			}
+	return blk
+}
+
+// expand maps k vectors given in the sector basis (c[i·k + v] is the
+// coefficient of basis vector i in vector v; d basis vectors) to the full
+// site basis: out[t·k + v].
+func expand(n int, o *orbitSet, orders, q, idx []int, c []complex128, d, k int) []complex128 {
+	out := make([]complex128, n*k)
+	for t := 0; t < n; t++ {
+		i := idx[o.of[t]]
+		if i < 0 {
+			continue
+		}
+		ct := o.coef(t, orders, q)
+		for v := 0; v < k; v++ {
+			out[t*k+v] = c[i*k+v] * ct
 		}
 	}
-	return sec, nil
+	return out
 }
