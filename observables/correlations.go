@@ -36,10 +36,10 @@ func (s Statistics) String() string {
 //	Distinguishable: Γ_qr = |U_qk U_rl|² + |U_ql U_rk|²
 //
 // Bromberg et al., PRL 102, 253904 (2009); Peruzzo et al., Science 329, 1500
-// (2010). For unitary U and k ≠ l each sums to 2 over ordered pairs (q, r);
-// the diagonal Γ_qq is the coincidence-free bunching term (twice the
-// probability of finding both particles on q for bosons, zero for fermions).
-// Cost O(n²); no allocation with a caller dst.
+// (2010). For unitary U and k ≠ l each sums to 2 over ordered pairs (q, r):
+// for q ≠ r, Γ_qr is the probability of finding one particle on q and the
+// other on r, and Γ_qq is twice the probability of finding both on q (zero
+// for fermions). Cost O(n²); no allocation with a caller dst.
 func Correlations(dst []float64, uk, ul []complex128, kind Statistics) []float64 {
 	n := len(uk)
 	if len(ul) != n {

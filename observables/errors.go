@@ -28,7 +28,7 @@ func checkSeries(times, values, errors []float64) error {
 	if len(values) != len(times) {
 		return fault.New("values", "must have the same length as times (%d); got %d", len(times), len(values))
 	}
-	if errors != nil && len(errors) != len(times) {
+	if len(errors) != 0 && len(errors) != len(times) {
 		return fault.New("errors", "must be empty or have the same length as times (%d); got %d", len(times), len(errors))
 	}
 	for i, t := range times {

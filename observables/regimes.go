@@ -170,7 +170,7 @@ const rssFloor = 1e-9
 // Replicates < 0 the intervals are Wald intervals ψ ± 1.96 σ_ψ in ln t.
 //
 // Validation: times positive, finite and strictly increasing; values
-// positive and finite; errors (nil or one per value) positive and finite;
+// positive and finite; errors (nil, empty, or one per value) positive and finite;
 // MaxSegments in [0, 8]; at least MinPoints points in the window. Failures
 // return an *InputError naming "times", "values", "errors", "fit.segments",
 // "fit.from", "fit.to", "fit.min_points" or "fit.replicates" and the first
@@ -178,6 +178,9 @@ const rssFloor = 1e-9
 func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, error) {
 	if err := checkSeries(times, values, errors); err != nil {
 		return nil, err
+	}
+	if len(errors) == 0 {
+		errors = nil // an empty slice means no errors, like nil
 	}
 	if s.MaxSegments < 0 || s.MaxSegments > 8 {
 		return nil, fault.Range("fit.segments", "between 1 and 8 (0 means 4)", s.MaxSegments)

@@ -198,6 +198,10 @@ func TestFitRegimesWindowAndWald(t *testing.T) {
 		assert.Less(t, cr.Low, cr.Time)
 		assert.Greater(t, cr.High, cr.Time)
 	}
+	// An empty errors slice means no errors.
+	g, err := FitRegimes(ts, ys, []float64{}, RegimeSettings{Replicates: -1})
+	require.NoError(t, err)
+	assert.Equal(t, f, g)
 	// Few points: the number of segments tried is capped, not an error.
 	f, err = FitRegimes(ts[:9], ys[:9], nil, RegimeSettings{MaxSegments: 4})
 	require.NoError(t, err)
