@@ -52,7 +52,7 @@
 // times; memory is 31 vectors.
 //
 // Exact diagonalises H once (O(n³) time, 32·n² bytes for a complex matrix
-// and its eigenvectors) and then costs two dense products per reported time
+// and its eigenvectors) and then costs one dense product per reported time
 // for any time, however long. It is refused with a TooLarge error when
 // EstimateBytes exceeds the memory limit.
 //

@@ -16,9 +16,11 @@ import (
 // H is assembled densely (read from a *sparse.CSR, otherwise from n products
 // with the unit vectors) and diagonalised by spectra.SymEigen (real H) or
 // spectra.HermEigen (complex Hermitian H); n more products measure the
-// eigenpair residual that bounds the error. Cost: O(n³) once, then two dense n×n products per step;
-// memory 16·n² bytes for the matrix and again for the vectors (half of that
-// for real H). The result is exact up to rounding at any time, however long.
+// eigenpair residual that bounds the error. Cost: O(n³) once, then one
+// dense n×n product per step (the eigen-coefficients are kept between
+// steps; two products when the state was changed in between); memory 16·n²
+// bytes for the matrix and again for the vectors (half of that for real H).
+// The result is exact up to rounding at any time, however long.
 type exact struct {
 	classical bool
 	n         int
@@ -28,6 +30,9 @@ type exact struct {
 	c         []complex128
 	hnorm     float64
 	resF      float64 // ‖HV − VΛ‖_F
+
+	last  []complex128 // the state returned by the last step
+	valid bool         // c holds the eigen-coefficients of last
 }
 
 // newExact assembles and diagonalises op; it returns the products used.
@@ -154,23 +159,11 @@ func (x *exact) name() string { return "exact" }
 
 func (x *exact) step(ctx context.Context, psi []complex128, dt, tol float64) (int, float64, error) {
 	n, c := x.n, x.c
-	for k := range c {
-		c[k] = 0
-	}
-	// c = Vᴴψ, row by row so that V is read contiguously.
-	for i, p := range psi {
-		if x.vr != nil {
-			row := x.vr[i*n : (i+1)*n]
-			pr, pi := real(p), imag(p)
-			for k, v := range row {
-				c[k] += complex(v*pr, v*pi)
-			}
-		} else {
-			row := x.vc[i*n : (i+1)*n]
-			for k, v := range row {
-				c[k] += cmplx.Conj(v) * p
-			}
-		}
+	// When psi is the state this propagator returned last (nobody changed
+	// it), its eigen-coefficients are still in c: one dense product per
+	// step instead of two.
+	if !x.valid || !equal(psi, x.last) {
+		x.coefficients(psi)
 	}
 	for k, l := range x.lam {
 		if x.classical {
@@ -196,6 +189,11 @@ func (x *exact) step(ctx context.Context, psi []complex128, dt, tol float64) (in
 		}
 		psi[i] = sum
 	}
+	if x.last == nil {
+		x.last = make([]complex128, n)
+	}
+	copy(x.last, psi)
+	x.valid = true
 	// The eigenpair residual bounds the error growth (see residual); the
 	// loss of orthogonality of V, of order n·ε for a backward-stable
 	// eigensolver (common practice), is estimated, not measured (that would
@@ -204,4 +202,35 @@ func (x *exact) step(ctx context.Context, psi []complex128, dt, tol float64) (in
 	const eps = 0x1p-52
 	est := (dt*x.resF + 2*float64(n)*eps) * nrm2(psi)
 	return 0, est, nil
+}
+
+func equal(a, b []complex128) bool {
+	for i, v := range a {
+		if b[i] != v {
+			return false
+		}
+	}
+	return true
+}
+
+// coefficients sets x.c = Vᴴψ, row by row so that V is read contiguously.
+func (x *exact) coefficients(psi []complex128) {
+	n, c := x.n, x.c
+	for k := range c {
+		c[k] = 0
+	}
+	for i, p := range psi {
+		if x.vr != nil {
+			row := x.vr[i*n : (i+1)*n]
+			pr, pi := real(p), imag(p)
+			for k, v := range row {
+				c[k] += complex(v*pr, v*pi)
+			}
+		} else {
+			row := x.vc[i*n : (i+1)*n]
+			for k, v := range row {
+				c[k] += cmplx.Conj(v) * p
+			}
+		}
+	}
 }
