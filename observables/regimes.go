@@ -118,8 +118,9 @@ type RegimeFit struct {
 	Scores    []float64
 	Criterion string
 	// Interval says how the crossover intervals were obtained:
-	// "bootstrap-residual", "bootstrap-parametric" or "wald"; Replicates is the
-	// number of bootstrap fits used.
+	// "bootstrap-residual", "bootstrap-parametric" or "wald" (empty when a
+	// single segment leaves no crossover); Replicates is the number of
+	// bootstrap fits used (0 without a bootstrap).
 	Interval   string
 	Replicates int
 	// Residual is the (weighted) residual sum of squares of ln y of the
