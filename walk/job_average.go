@@ -4,7 +4,6 @@ import (
 	"context"
 	"math"
 
-	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
 	"github.com/ampwalk/ampwalk/observables"
 	"github.com/ampwalk/ampwalk/spectra"
@@ -47,7 +46,7 @@ func (j *Job) average(ctx context.Context, g *lattice.Graph, s0 int, set Setting
 func exactAverage(g *lattice.Graph, gamma float64, s0 int) ([]float64, error) {
 	e, err := spectra.Eigensystem(g, gamma)
 	if err != nil {
-		return nil, fault.Prefix("average", err)
+		return nil, within("average", err)
 	}
 	n := e.N
 	width := math.Max(1, e.Values[n-1]-e.Values[0])

@@ -20,6 +20,15 @@ func fitPoints(times, y, yerr []float64) (t, v, e []float64) {
 	return t, v, e
 }
 
+// enoughPoints refuses a fit with fewer than 4 usable points (the least
+// FitRegimes takes for one segment).
+func enoughPoints(t []float64) error {
+	if len(t) < 4 {
+		return fault.New("report", "\"regimes\" needs the fitted quantity positive at 4 or more reported times t > 0; got %d such times", len(t))
+	}
+	return nil
+}
+
 func (j *Job) regimeSettings(replicates int) observables.RegimeSettings {
 	return observables.RegimeSettings{MaxSegments: j.Fit.Segments, From: j.Fit.From, To: j.Fit.To,
 		Replicates: replicates}
@@ -64,6 +73,8 @@ func (j *Job) regimes(resp *Response, times, y, yerr []float64) error {
 	t, v, e := fitPoints(times, y, yerr)
 	if series {
 		t, v, e = times, y, yerr
+	} else if err := enoughPoints(t); err != nil {
+		return err
 	}
 	fit, err := observables.FitRegimes(t, v, e, j.regimeSettings(0))
 	if err != nil {
@@ -83,6 +94,9 @@ func (j *Job) ensembleRegimes(resp *Response, curves [][]float64) error {
 	var les [][]float64
 	for r, c := range curves {
 		t, v, _ := fitPoints(j.Times, c, nil)
+		if err := enoughPoints(t); err != nil {
+			return err
+		}
 		fit, err := observables.FitRegimes(t, v, nil, j.regimeSettings(-1))
 		if err != nil {
 			return fitError(err, false)

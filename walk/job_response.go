@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"math"
+	"strings"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 )
@@ -165,6 +166,26 @@ func errorBody(err error) *ErrorBody {
 }
 
 func asFault(err error, dst **fault.Error) bool { return errors.As(err, dst) }
+
+// within names err's field inside the request object prefix: an empty field
+// becomes prefix, a field already under prefix or naming a top-level request
+// field stays as it is, anything else becomes prefix + "." + field.
+func within(prefix string, err error) error {
+	var fe *fault.Error
+	if err == nil || !errors.As(err, &fe) {
+		return err
+	}
+	f := fe.Field
+	if f == prefix || strings.HasPrefix(f, prefix+".") || strings.HasPrefix(f, prefix+"[") {
+		return fe
+	}
+	for _, k := range topLevel {
+		if f == k || strings.HasPrefix(f, k+".") || strings.HasPrefix(f, k+"[") {
+			return fe
+		}
+	}
+	return fault.Prefix(prefix, fe)
+}
 
 // finite reports whether every number in the response is finite (JSON has
 // no NaN); it returns the name of the first offending output.

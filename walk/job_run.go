@@ -49,13 +49,23 @@ func (j *Job) Run(ctx context.Context, log io.Writer) (resp *Response, err error
 		return nil, err
 	}
 	if name := resp.finite(); name != "" {
-		return nil, &fault.Error{Kind: fault.Numerical, Field: name, Msg: "produced a value that is not a finite number"}
+		return nil, &fault.Error{Kind: fault.Numerical, Field: name,
+			Msg: "came out as a value that is not a finite number (the computation overflowed: check hopping, times and the lattice's energies)"}
+	}
+	if d := resp.Diagnostics; d != nil && d.ErrorBound > maxErrorBound(j.Tolerance) {
+		return nil, &fault.Error{Kind: fault.Numerical, Field: "tolerance",
+			Msg: fmt.Sprintf("%.3g cannot be met: the propagation's own error bound is %.3g, too large for meaningful results; use shorter times or another method", j.Tolerance, d.ErrorBound)}
 	}
 	if resp.Diagnostics != nil {
 		resp.Diagnostics.Seconds = time.Since(start).Seconds()
 	}
 	return resp, nil
 }
+
+// maxErrorBound is the largest error bound of a propagation accepted for a
+// given tolerance: bounds are loose, so well above the tolerance, but a
+// state error beyond 1e-3 would make the reported numbers meaningless.
+func maxErrorBound(tol float64) float64 { return max(1e-3, 1e4*tol) }
 
 // graph builds the lattice and applies remove. kept is nil without remove.
 func (j *Job) graph() (g *lattice.Graph, kept []int, err error) {
@@ -75,7 +85,7 @@ func (j *Job) graph() (g *lattice.Graph, kept []int, err error) {
 			}
 		}
 		if g, kept, err = g.Remove(j.Remove); err != nil {
-			return nil, nil, fault.Prefix("remove", err)
+			return nil, nil, within("remove", err)
 		}
 	}
 	return g, kept, nil
@@ -94,7 +104,7 @@ func (j *Job) realise(g *lattice.Graph, k int) (*lattice.Graph, error) {
 	}
 	rng := rand.New(rand.NewPCG(d.Seed, uint64(k)))
 	h, err := g.WithDisorder(lattice.Disorder{Onsite: d.Onsite, Bond: d.Bond, Law: law}, rng)
-	return h, fault.Prefix("disorder", err)
+	return h, within("disorder", err)
 }
 
 // realisations returns the first realisation index and the count.
@@ -110,7 +120,7 @@ func site(g *lattice.Graph, field string, i int, near []float64) (int, error) {
 	if near != nil {
 		s, err := g.Nearest(near)
 		if err != nil {
-			return 0, fault.Prefix(field, err)
+			return 0, within(field, err)
 		}
 		return s, nil
 	}

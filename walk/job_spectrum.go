@@ -56,7 +56,7 @@ func (j *Job) runSpectrum(ctx context.Context, log io.Writer) (*Response, error)
 					n, n, n, int64(16)*int64(n)*int64(n), MaxEigenvalueSites)}
 		}
 		if values, err = spectra.Eigenvalues(g, j.Hopping); err != nil {
-			return nil, fault.Prefix("spectrum", err)
+			return nil, within("spectrum", err)
 		}
 	}
 	if err := ctx.Err(); err != nil {
@@ -74,21 +74,21 @@ func (j *Job) runSpectrum(ctx context.Context, log io.Writer) (*Response, error)
 				Moments: d.Moments, Vectors: d.Vectors, Seed: d.Seed, Bins: d.Bins})
 		}
 		if err != nil {
-			return nil, fault.Prefix("spectrum", err)
+			return nil, within("spectrum", err)
 		}
 		resp.DOS = &DOSResult{Energy: dos.Energy, Density: dos.Density, Method: d.Method}
 	}
 	if s.Ratio {
 		r, err := spacingRatio(values)
 		if err != nil {
-			return nil, fault.Prefix("spectrum.ratio", err)
+			return nil, within("spectrum.ratio", err)
 		}
 		resp.Ratio = r
 	}
 	if s.BoxDimension {
 		b, err := boxDimension(g.Coords(), g.Dim())
 		if err != nil {
-			return nil, fault.Prefix("spectrum.box_dimension", err)
+			return nil, within("spectrum.box_dimension", err)
 		}
 		resp.BoxDimension = b
 	}

@@ -35,12 +35,11 @@ func Serve(ctx context.Context, r io.Reader, w io.Writer, log io.Writer) error {
 		}
 		if len(bytes.TrimSpace(text)) > 0 {
 			resp := serveLine(ctx, text, log, line)
-			out, err := json.Marshal(resp)
+			out, err := encodeLine(resp)
 			if err != nil {
-				out, _ = json.Marshal(&Response{ID: resp.ID, Error: &ErrorBody{Code: "numerical",
+				out, _ = encodeLine(&Response{ID: resp.ID, Error: &ErrorBody{Code: "numerical",
 					Message: "the response could not be encoded: " + err.Error()}})
 			}
-			out = append(out, '\n')
 			if _, err := w.Write(out); err != nil {
 				return fmt.Errorf("walk: writing response %d: %w", line, err)
 			}
@@ -68,4 +67,16 @@ func serveLine(ctx context.Context, text []byte, log io.Writer, line int) (resp 
 		return &Response{ID: id, Error: errorBody(err)}
 	}
 	return resp
+}
+
+// encodeLine encodes r as one JSON line (without HTML escaping, so that
+// messages keep their "<" and ">").
+func encodeLine(r *Response) ([]byte, error) {
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(r); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
 }

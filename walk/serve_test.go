@@ -320,3 +320,40 @@ func TestRunGoCaller(t *testing.T) {
 	assert.Len(t, r.MSD, 2)
 	assert.Len(t, r.Return, 2)
 }
+
+func TestServeNumericalAndEdgeCases(t *testing.T) {
+	res := serveLines(t,
+		// Overflow: γ = 1e300 makes the spectrum non-finite.
+		`{"id":"big","lattice":{"kind":"chain","sites":5},"hopping":1e300,"start":{"site":2},"times":[0,1,2]}`,
+		// A time so large that no propagation can meet any tolerance.
+		`{"id":"far","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":[0,1e300]}`,
+		// Nothing moves with γ = 0: no exponent to fit.
+		`{"id":"still","lattice":{"kind":"chain","sites":5},"hopping":0,"start":{"site":2},"times":[0,1,2],"report":["regimes"]}`,
+		`{"id":"rm","lattice":{"kind":"chain","sites":3},"remove":[0,1,2],"start":{"site":0},"times":[1]}`,
+		`{"id":"rm2","lattice":{"kind":"chain","sites":3},"remove":[0,7],"start":{"site":0},"times":[1]}`,
+		`{"id":"dim","lattice":{"kind":"hypercube","dimension":3},"start":{"near":[1,1]},"times":[1]}`,
+		`{"id":"sec","lattice":{"kind":"chain","sites":3},"start":{"site":0,"second":0},"times":[1],"report":["correlations"]}`,
+	)
+	want := []struct{ code, field string }{
+		{"numerical", ""}, {"numerical", "tolerance"}, {"invalid", "report"}, {"invalid", "remove"},
+		{"invalid", "remove[1]"}, {"invalid", "start.near"}, {"invalid", "start.second"},
+	}
+	for k, w := range want {
+		code, field := errCode(res[k])
+		assert.Equal(t, w.code, code, "%v", res[k])
+		if w.field != "" {
+			assert.Equal(t, w.field, field, "%v", res[k])
+		}
+	}
+	// Hypercube Q_3: perfect transfer to the antipode at t = π/2 (Christandl,
+	// Datta, Ekert, Landahl, PRL 92, 187902 (2004)).
+	res = serveLines(t, fmt.Sprintf(`{"lattice":{"kind":"hypercube","dimension":3},"start":{"site":0},"times":[%v],"report":["populations"]}`, math.Pi/2))
+	requireOKServe(t, res[0])
+	assert.InDelta(t, 1, floats(t, res[0]["populations"].([]any)[0])[7], 1e-9)
+}
+
+func requireOKServe(t *testing.T, r map[string]any) {
+	t.Helper()
+	code, _ := errCode(r)
+	require.Empty(t, code, "%v", r["error"])
+}
