@@ -85,6 +85,7 @@ func TestBoxDimensionLattices(t *testing.T) {
 	}
 	r, err := BoxDimension(sq, 2, nil)
 	require.NoError(t, err)
+	// Base-2 boxes tile a 64-point side exactly: the counts are exact powers.
 	require.InDelta(t, 2, r.Dimension, 0.02)
 	r, err = BoxDimension(line, 1, nil)
 	require.NoError(t, err)

@@ -114,6 +114,9 @@ func TestLocalDOS(t *testing.T) {
 				want += e.Weight(site, k)
 			}
 		}
+		// Exact moments: the error is the Jackson kernel's smearing of the
+		// steps (width ≈ πa/M ≈ 0.025 here, Weiße et al. 2006) at the test
+		// energies, which sit at least that far from the largest steps.
 		require.InDelta(t, want, cumulativeAt(d, x), 0.02, "E=%v", x)
 	}
 }
