@@ -147,3 +147,39 @@ func TestLongTimeAverageErrors(t *testing.T) {
 		assert.Equal(t, c.field, ie.Field)
 	}
 }
+
+func TestLongTimeAverageCycleFlux(t *testing.T) {
+	// Cycle C_N threaded by flux φ: plane-wave eigenvectors V_jk =
+	// e^{2πijk/N}/√N with eigenvalues 2cos((2πk + φ)/N) (Bloch's theorem,
+	// common practice). φ = 0 has degenerate pairs k, N−k and gives
+	// (2N−1)/N² or (2N−2)/N² (references.md [derived]); a generic φ lifts
+	// every degeneracy and the average becomes uniform, 1/N on every site.
+	for _, n := range []int{5, 6, 11, 12} {
+		vecs := make([]complex128, n*n)
+		for j := range n {
+			for k := range n {
+				a := 2 * math.Pi * float64(j*k) / float64(n)
+				vecs[j*n+k] = complex(math.Cos(a), math.Sin(a)) / complex(math.Sqrt(float64(n)), 0)
+			}
+		}
+		for _, phi := range []float64{0, 0.37} {
+			vals := make([]float64, n)
+			for k := range vals {
+				vals[k] = 2 * math.Cos((2*math.Pi*float64(k)+phi)/float64(n))
+			}
+			p, err := LongTimeAverage(vals, vecs, n, 2, 1e-9)
+			require.NoError(t, err)
+			if phi == 0 {
+				want := float64(2*n-1) / float64(n*n)
+				if n%2 == 0 {
+					want = float64(2*n-2) / float64(n*n)
+				}
+				assert.InDelta(t, want, p[2], 1e-13, "N=%d", n)
+			} else {
+				for j := range n {
+					assert.InDelta(t, 1/float64(n), p[j], 1e-13, "N=%d j=%d", n, j)
+				}
+			}
+		}
+	}
+}
