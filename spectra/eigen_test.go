@@ -174,3 +174,33 @@ func TestEigenInputErrors(t *testing.T) {
 		t.Errorf("HermEigen complex diagonal: got %v", err)
 	}
 }
+
+// TestEigenScaling checks matrices with entries near the ends of the
+// float64 range: the solver scales them and the eigenvalues of
+// s·(path P_4) are s·2cos(πk/5) (common practice).
+func TestEigenScaling(t *testing.T) {
+	for _, s := range []float64{1e-300, 1e300, 1} {
+		n := 4
+		a := make([]float64, n*n)
+		c := make([]complex128, n*n)
+		for i := 0; i+1 < n; i++ {
+			a[i*n+i+1], a[(i+1)*n+i] = s, s
+			c[i*n+i+1], c[(i+1)*n+i] = complex(0, s), complex(0, -s)
+		}
+		w, _, err := SymEigen(a, n, true)
+		if err != nil {
+			t.Fatal(err)
+		}
+		wc, _, err := HermEigen(c, n, true)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for k := 0; k < n; k++ {
+			want := s * 2 * math.Cos(math.Pi*float64(n-k)/float64(n+1))
+			// 1e-14 relative: a 4×4 problem (common practice).
+			if math.Abs(w[k]-want) > 1e-14*s || math.Abs(wc[k]-want) > 1e-14*s {
+				t.Errorf("s=%g: λ[%d] = %g (sym), %g (herm), want %g", s, k, w[k], wc[k], want)
+			}
+		}
+	}
+}
