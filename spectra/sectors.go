@@ -115,6 +115,10 @@ type Sector struct {
 // out), and the block entries are read from the representative's row of H:
 // O(nnz) per sector.
 //
+// Invariance is checked entry by entry, H[g(i)][g(j)] = H[i][j] to 1e-12
+// relative: a symmetry that holds only up to a gauge transformation (other
+// Peierls phases with the same fluxes) is not recognised.
+//
 // Errors (field "symmetry[j]"): a permutation of the wrong length or not a
 // bijection, one that does not leave H invariant, generators that do not
 // commute, a group of more than 2^20 elements; "lattice" too-large when a

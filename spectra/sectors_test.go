@@ -247,3 +247,80 @@ func TestSectorsFluxRing(t *testing.T) {
 	_, err = Sectors(g2, 1, []Symmetry{Translation(n)}, false)
 	require.Error(t, err)
 }
+
+func TestSectorsRandomSweep(t *testing.T) {
+	// Seeded sweep: rings of identical random complex cells (phases, on-site
+	// energies), reduced by the cell shift, by the shift and its square as
+	// two (dependent) generators, and on a torus of cells by two shifts.
+	// Invariant: the union of the sector spectra is the full spectrum
+	// (common practice).
+	rng := rand.New(rand.NewPCG(31, 32))
+	for trial := 0; trial < 12; trial++ {
+		m := 1 + rng.IntN(4)
+		L1, L2 := 3+rng.IntN(4), 1+rng.IntN(3)
+		if trial%3 != 2 {
+			L2 = 1
+		}
+		cell := func(c1, c2 int) int { return ((c1%L1+L1)%L1 + L1*((c2%L2+L2)%L2)) * m }
+		n := m * L1 * L2
+		type tmpl struct {
+			a, b, d1, d2 int
+			w, ph        float64
+		}
+		var ts []tmpl
+		for a := 0; a < m; a++ {
+			for b := a + 1; b < m; b++ {
+				ts = append(ts, tmpl{a, b, 0, 0, rng.NormFloat64(), rng.Float64() * 6})
+			}
+			for b := 0; b < m; b++ {
+				ts = append(ts, tmpl{a, b, 1, 0, rng.NormFloat64(), rng.Float64() * 6})
+				if L2 > 2 {
+					ts = append(ts, tmpl{a, b, 0, 1, rng.NormFloat64(), rng.Float64() * 6})
+				}
+			}
+		}
+		on := make([]float64, m)
+		for a := range on {
+			on[a] = rng.NormFloat64()
+		}
+		var bonds []lattice.Bond
+		onsite := make([]float64, n)
+		for c2 := 0; c2 < L2; c2++ {
+			for c1 := 0; c1 < L1; c1++ {
+				for a := 0; a < m; a++ {
+					onsite[cell(c1, c2)+a] = on[a]
+				}
+				for _, x := range ts {
+					bonds = append(bonds, lattice.Bond{I: cell(c1, c2) + x.a, J: cell(c1+x.d1, c2+x.d2) + x.b, W: x.w, Phase: x.ph})
+				}
+			}
+		}
+		g, err := lattice.New(n, 1, nil, bonds, onsite)
+		require.NoError(t, err)
+		shift := func(d1, d2 int) Symmetry {
+			p := make([]int, n)
+			for c2 := 0; c2 < L2; c2++ {
+				for c1 := 0; c1 < L1; c1++ {
+					for a := 0; a < m; a++ {
+						p[cell(c1, c2)+a] = cell(c1+d1, c2+d2) + a
+					}
+				}
+			}
+			return Symmetry{Perm: p}
+		}
+		var syms []Symmetry
+		switch trial % 3 {
+		case 0:
+			syms = []Symmetry{shift(1, 0)}
+		case 1:
+			syms = []Symmetry{shift(1, 0), shift(2, 0)}
+		default:
+			syms = []Symmetry{shift(1, 0), shift(0, 1)}
+		}
+		full, err := Eigenvalues(g, 0.9)
+		require.NoError(t, err)
+		secs, err := Sectors(g, 0.9, syms, false)
+		require.NoError(t, err, "trial %d", trial)
+		requireClose(t, full, unionValues(secs), 1e-10)
+	}
+}
