@@ -80,9 +80,7 @@ func householderLS(a []float64, n, p int, y, beta []float64) (rss float64, ok bo
 // in the upper triangle of the column-major n×p matrix a by householderLS.
 // It returns false when R is singular.
 func rInverseCov(a []float64, n, p int, cov []float64) bool {
-	// rinv upper triangular, p×p row-major, stored in cov temporarily is
-	// awkward: use a small local buffer.
-	rinv := make([]float64, p*p)
+	rinv := make([]float64, p*p) // R⁻¹, upper triangular, row-major
 	for j := range p {
 		if a[j+j*n] == 0 {
 			return false
