@@ -121,16 +121,20 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 			}
 			prev = t
 		}
+		var drift float64
 		if classical {
-			d.NormDrift = math.Max(d.NormDrift, math.Abs(sumReal(psi)-sum0))
-		} else {
-			nm := nrm2(psi)
-			if math.IsNaN(nm) || math.IsInf(nm, 0) {
-				d.Seconds = time.Since(start).Seconds()
-				return d, numerical("the propagated state is not finite")
+			drift = math.Abs(sumReal(psi) - sum0)
+			if nm := nrm2(psi); math.IsNaN(nm) || math.IsInf(nm, 0) {
+				drift = nm
 			}
-			d.NormDrift = math.Max(d.NormDrift, math.Abs(nm-norm0))
+		} else {
+			drift = math.Abs(nrm2(psi) - norm0)
 		}
+		if math.IsNaN(drift) || math.IsInf(drift, 0) {
+			d.Seconds = time.Since(start).Seconds()
+			return d, numerical("the propagated state is not finite")
+		}
+		d.NormDrift = math.Max(d.NormDrift, drift)
 		if visit != nil {
 			if err := visit(k, t, psi); err != nil {
 				d.Seconds = time.Since(start).Seconds()

@@ -414,3 +414,51 @@ func TestPropagateDegenerate(t *testing.T) {
 		}
 	}
 }
+
+// nanOp is an operator whose products turn non-finite after a while.
+type nanOp struct {
+	op    Operator
+	calls *int
+	after int
+}
+
+func (o nanOp) Len() int { return o.op.Len() }
+func (o nanOp) MulVec(dst, x []complex128) {
+	o.op.MulVec(dst, x)
+	*o.calls++
+	if *o.calls > o.after {
+		dst[len(dst)/2] = complex(math.NaN(), 0)
+	}
+}
+
+// TestNonFiniteIsAnError checks that a non-finite product never reaches
+// the caller as a silent NaN: every method returns an error instead.
+func TestNonFiniteIsAnError(t *testing.T) {
+	g := graph(t, 60, chainBonds(60, false), nil)
+	for _, dyn := range []Dynamics{Quantum, Classical} {
+		for _, m := range allMethods {
+			for _, after := range []int{0, 40, 200} {
+				calls := 0
+				op := nanOp{g.Hamiltonian(1), &calls, after}
+				if dyn == Classical {
+					op.op = g.Laplacian(1)
+				}
+				_, err := Propagate(context.Background(), op, dyn, basis(60, 30), []float64{0.5, 4, 30}, Settings{Method: m},
+					func(_ int, _ float64, psi []complex128) error {
+						for _, v := range psi {
+							require.False(t, math.IsNaN(real(v)) || math.IsNaN(imag(v)), "%v %v: NaN reported", dyn, m)
+						}
+						return nil
+					})
+				if calls <= after {
+					// This method finished before the operator turned bad.
+					require.NoError(t, err)
+					continue
+				}
+				require.Error(t, err, "%v %v after %d", dyn, m, after)
+				var ie *InputError
+				require.ErrorAs(t, err, &ie)
+			}
+		}
+	}
+}
