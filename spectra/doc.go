@@ -9,9 +9,9 @@
 //
 // ħ = 1. The Hamiltonian is H = γW + diag(ε), W the weighted (possibly
 // complex, Hermitian) adjacency with a plus sign, γ the hopping; the
-// classical generator is −γL with L = D − W. Energies are in units of γ when
-// γ = 1, times in units of 1/γ, positions in units of the nearest-neighbour
-// spacing. Eigenvalues are ascending; eigenvectors are stored row-major
+// classical generator is −γL with L = D − W. Energies carry the units of γ
+// (γ = 1 measures them in units of the hopping), times are in units of 1/γ,
+// positions in units of the nearest-neighbour spacing. Eigenvalues are ascending; eigenvectors are stored row-major
 // with one eigenvector per column (component i of vector k at i·n + k).
 // Densities of states are per site: Σ_b Density[b]·Width = 1. Every random
 // draw comes from math/rand/v2's PCG with an explicit seed and a stream per
@@ -39,6 +39,13 @@
 //     (Translation, Reflection, SquareTranslations, PositionSymmetry) and
 //     DihedralSectors adding a reflection that inverts them (D_n of rings,
 //     D_3 of gaskets, D_4 of carpets, inversion of periodic lattices).
+//
+// The gasket graph as lattice.Gasket builds it (corners of degree 2, no
+// boundary condition imposed) carries the Neumann spectrum of spectral
+// decimation: the normalised Laplacian 4(I − D⁻¹A) of generation 1 has
+// {0:1, 3:2, 6:3} (Fukushima & Shima, Potential Anal. 1, 1 (1992)), checked
+// in the tests up to generation 2. Its adjacency spectrum is massively
+// degenerate, which SpacingRatio counts and leaves out.
 //
 // # Example
 //
