@@ -145,4 +145,3 @@ func quantile(sorted []float64, q float64) float64 {
 	}
 	return sorted[i] + (h-float64(i))*(sorted[i+1]-sorted[i])
 }
-
