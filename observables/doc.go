@@ -55,8 +55,9 @@
 // probability.go, region.go, radial.go: per-time reductions. average.go,
 // window.go: infinite- and finite-time averages. polya.go: the Pólya number.
 // correlations.go: two-particle correlations. localexp.go: the smoothed local
-// exponent. regimes.go (with segmented.go, hinge.go, lsq.go, intervals.go): the regime
-// analysis. ensemble.go: means and standard errors over realisations.
+// exponent. regimes.go, with segmented.go, hinge.go, lsq.go and
+// intervals.go: the regime analysis. ensemble.go: means and standard errors
+// over realisations.
 //
 // # Errors
 //
