@@ -113,3 +113,51 @@ func ExampleSectors() {
 	// q=4: -1.000
 	// q=5: 1.000
 }
+
+// The spectral dimension of the gasket from the lower edge of its Laplacian
+// spectrum, against 2 ln3/ln5 ≈ 1.365.
+func ExampleSpectralDimensionLevels() {
+	g, err := lattice.Gasket(5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	lam, err := spectra.LaplacianEigenvalues(g, 1)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	e, err := spectra.SpectralDimensionLevels(lam, 0.2)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("d_s = %.2f ± %.2f from %d steps (2 ln3/ln5 = %.3f)\n", e.Value, e.Error, e.Points, 2*math.Log(3)/math.Log(5))
+	// Output:
+	// d_s = 1.34 ± 0.03 from 31 steps (2 ln3/ln5 = 1.365)
+}
+
+// Dihedral sectors of a ring of 8: the mirror splits momentum 0 and 4, and
+// the momenta ±q pair up (Copies = 2).
+func ExampleDihedralSectors() {
+	g, err := lattice.Chain(8, true)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	secs, err := spectra.DihedralSectors(g, 1, []spectra.Symmetry{spectra.Translation(8)}, spectra.Reflection(8), false)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	for _, s := range secs {
+		e := math.Round(s.Values[0]*1000)/1000 + 0 // no "-0.000"
+		fmt.Printf("q=%d parity %+d copies %d: %.3f\n", s.Label[0], s.Parity, s.Copies, e)
+	}
+	// Output:
+	// q=0 parity +1 copies 1: 2.000
+	// q=1 parity +0 copies 2: 1.414
+	// q=2 parity +0 copies 2: 0.000
+	// q=3 parity +0 copies 2: -1.414
+	// q=4 parity -1 copies 1: -2.000
+}
