@@ -1,0 +1,422 @@
+package walk_test
+
+// Acceptance audit of the JSON bridge against the binding contract
+// ../shared/spec/job-format.md, driven only through walk.Serve (the loop the
+// bridge binary runs). Physics references are made offline by
+// testdata/audit/make_refs.py (numpy 1.24.2, scipy 1.10.1; every case names
+// its source in refs.json), the contract items (transport, defaults, error
+// codes and fields) are checked literally below.
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"encoding/json"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"github.com/ampwalk/ampwalk/walk"
+)
+
+// auditServe runs walk.Serve on raw input and returns the decoded output
+// lines, the raw output and the log.
+func auditServe(t *testing.T, input string) ([]map[string]any, string, string) {
+	t.Helper()
+	var out, log bytes.Buffer
+	err := walk.Serve(context.Background(), strings.NewReader(input), &out, &log)
+	require.NoError(t, err)
+	var res []map[string]any
+	sc := bufio.NewScanner(bytes.NewReader(out.Bytes()))
+	sc.Buffer(nil, 1<<28)
+	for sc.Scan() {
+		var m map[string]any
+		require.NoError(t, json.Unmarshal(sc.Bytes(), &m), "every stdout line is one JSON object: %q", sc.Text())
+		res = append(res, m)
+	}
+	return res, out.String(), log.String()
+}
+
+func auditLines(t *testing.T, reqs ...any) []map[string]any {
+	t.Helper()
+	var b strings.Builder
+	for _, r := range reqs {
+		switch r := r.(type) {
+		case string:
+			b.WriteString(r)
+		default:
+			p, err := json.Marshal(r)
+			require.NoError(t, err)
+			b.Write(p)
+		}
+		b.WriteByte('\n')
+	}
+	res, _, _ := auditServe(t, b.String())
+	require.Len(t, res, len(reqs))
+	return res
+}
+
+type auditCase struct {
+	Name    string         `json:"name"`
+	Request map[string]any `json:"request"`
+	Expect  map[string]any `json:"expect"`
+	Atol    float64        `json:"atol"`
+	Source  string         `json:"source"`
+}
+
+// auditCompare compares an expected JSON value with the bridge's, numbers
+// within atol·(1+|expected|). "populations_at" selects single populations:
+// {"offsets": [j…], "values": [[p_j(t_k)…]…]}.
+func auditCompare(path string, want, got any, atol float64, diffs *[]string) {
+	switch w := want.(type) {
+	case map[string]any:
+		g, ok := got.(map[string]any)
+		if !ok {
+			*diffs = append(*diffs, fmt.Sprintf("%s: want an object, got %v", path, got))
+			return
+		}
+		keys := make([]string, 0, len(w))
+		for k := range w {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		for _, k := range keys {
+			if k == "populations_at" {
+				sel := w[k].(map[string]any)
+				pops, ok := g["populations"].([]any)
+				if !ok {
+					*diffs = append(*diffs, path+".populations: missing")
+					continue
+				}
+				offs := sel["offsets"].([]any)
+				for ti, row := range sel["values"].([]any) {
+					if ti >= len(pops) {
+						*diffs = append(*diffs, fmt.Sprintf("%s.populations: %d rows", path, len(pops)))
+						break
+					}
+					pr := pops[ti].([]any)
+					for j, o := range offs {
+						idx := int(o.(float64))
+						p := fmt.Sprintf("%s.populations[%d][%d]", path, ti, idx)
+						if idx >= len(pr) {
+							*diffs = append(*diffs, p+": out of range")
+							continue
+						}
+						auditCompare(p, row.([]any)[j], pr[idx], atol, diffs)
+					}
+				}
+				continue
+			}
+			gv, ok := g[k]
+			if !ok {
+				*diffs = append(*diffs, path+"."+k+": missing")
+				continue
+			}
+			auditCompare(path+"."+k, w[k], gv, atol, diffs)
+		}
+	case []any:
+		g, ok := got.([]any)
+		if !ok || len(g) != len(w) {
+			*diffs = append(*diffs, fmt.Sprintf("%s: want %d entries, got %v", path, len(w), got))
+			return
+		}
+		for i := range w {
+			auditCompare(fmt.Sprintf("%s[%d]", path, i), w[i], g[i], atol, diffs)
+		}
+	case float64:
+		g, ok := got.(float64)
+		if !ok || !(math.Abs(g-w) <= atol*(1+math.Abs(w))) {
+			*diffs = append(*diffs, fmt.Sprintf("%s: want %v, got %v", path, w, got))
+		}
+	default:
+		if fmt.Sprint(want) != fmt.Sprint(got) {
+			*diffs = append(*diffs, fmt.Sprintf("%s: want %v, got %v", path, want, got))
+		}
+	}
+}
+
+// TestAuditReferenceCases runs every case of testdata/audit/refs.json (made
+// offline by make_refs.py; each case carries its source) through one Serve
+// loop and compares the wire output.
+func TestAuditReferenceCases(t *testing.T) {
+	raw, err := os.ReadFile(filepath.Join("testdata", "audit", "refs.json"))
+	require.NoError(t, err)
+	var ref struct {
+		Cases []auditCase `json:"cases"`
+	}
+	require.NoError(t, json.Unmarshal(raw, &ref))
+	require.NotEmpty(t, ref.Cases)
+	reqs := make([]any, len(ref.Cases))
+	for i, c := range ref.Cases {
+		reqs[i] = c.Request
+	}
+	res := auditLines(t, reqs...)
+	for i, c := range ref.Cases {
+		t.Run(c.Name, func(t *testing.T) {
+			r := res[i]
+			require.Equal(t, c.Name, r["id"], "responses in request order with the id echoed")
+			require.Nil(t, r["error"], "source: %s", c.Source)
+			var diffs []string
+			auditCompare("", c.Expect, r, c.Atol, &diffs)
+			assert.Empty(t, diffs, "source: %s", c.Source)
+			// Populations of a walk sum to 1 (unitarity / probability
+			// conservation) and are never negative beyond round-off.
+			tol := 1e-10 // contract default tolerance
+			if v, ok := c.Request["tolerance"].(float64); ok {
+				tol = v
+			}
+			if pops, ok := r["populations"].([]any); ok {
+				for k, row := range pops {
+					sum := 0.0
+					for _, p := range row.([]any) {
+						sum += p.(float64)
+						assert.GreaterOrEqual(t, p.(float64), -1e-9, "populations[%d]", k) // round-off, common practice
+					}
+					// A 2-norm state error ε moves Σp by at most 2ε+ε² (triangle
+					// inequality); 1e-9 covers round-off (common practice).
+					assert.InDelta(t, 1, sum, 3*tol+1e-9, "populations[%d] sum", k)
+				}
+			}
+		})
+	}
+}
+
+func auditErr(t *testing.T, r map[string]any) (code, field string) {
+	t.Helper()
+	e, ok := r["error"].(map[string]any)
+	require.True(t, ok, "want an error object, got %v", r)
+	code, _ = e["code"].(string)
+	field, _ = e["field"].(string)
+	msg, _ := e["message"].(string)
+	assert.NotEmpty(t, msg, "error message")
+	for k := range r {
+		assert.Contains(t, []string{"id", "error"}, k, "an error line holds no partial result")
+	}
+	return code, field
+}
+
+// TestAuditErrors checks error codes, field names and id echo from the
+// contract's Errors section.
+func TestAuditErrors(t *testing.T) {
+	ch := `"lattice":{"kind":"chain","sites":5}`
+	ok := `"start":{"site":2},"times":[1]`
+	cases := []struct {
+		line, id, code, field string
+	}{
+		{`not json`, "", "malformed", ""},
+		{`{"id":"t1","lattice":{"kind":"chain"`, "", "malformed", ""},
+		{`[1,2]`, "", "malformed", ""},
+		{`{"id":"nan",` + ch + `,` + `"start":{"site":2},"times":[NaN]}`, "", "malformed", ""},
+		{`{"id":"inf",` + ch + `,` + ok + `,"hopping":Infinity}`, "", "malformed", ""},
+		{`{"id":"e1",` + ch + `,` + ok + `,"hoping":1}`, "e1", "unknown-field", "hoping"},
+		{`{"id":"e2","lattice":{"kind":"chain","sites":5,"site":3},` + ok + `}`, "e2", "unknown-field", "lattice.site"},
+		{`{"id":"e3",` + ch + `,"start":{"sight":1},"times":[1]}`, "e3", "unknown-field", "start.sight"},
+		{`{"id":"e4",` + ch + `,"start":{"site":2},"times":{"from":0,"to":1,"count":3,"step":1}}`, "e4", "unknown-field", "times.step"},
+		{`{"id":"e5",` + ch + `,` + ok + `,"disorder":{"onsit":1}}`, "e5", "unknown-field", "disorder.onsit"},
+		{`{"id":"e6",` + ch + `,` + ok + `,"fit":{"quantiti":"msd"}}`, "e6", "unknown-field", "fit.quantiti"},
+		{`{"id":"e7","lattice":{"kind":"graph","sites":2,"bonds":[[0,1]],"weights":[1]},` + ok + `}`, "e7", "unknown-field", "lattice.weights"},
+		{`{"id":"i1","lattice":{"kind":"gasket","generation":-2},` + ok + `}`, "i1", "invalid", "lattice.generation"},
+		{`{"id":"i2",` + ch + `,"start":{"site":9},"times":[1]}`, "i2", "invalid", "start.site"},
+		{`{"id":"i3",` + ch + `,"start":{"site":1.5},"times":[1]}`, "i3", "invalid", "start.site"},
+		{`{"id":"i4",` + ch + `,"start":{"near":[0]},"times":[1]}`, "i4", "invalid", "start.near"},
+		{`{"id":"i5",` + ch + `,"start":{"near":[0,0,0]},"times":[1]}`, "i5", "invalid", "start.near"},
+		{`{"id":"i6",` + ch + `,"start":{"site":2},"times":[1,0.5]}`, "i6", "invalid", "times[1]"},
+		{`{"id":"i7",` + ch + `,"start":{"site":2},"times":[-1]}`, "i7", "invalid", "times[0]"},
+		{`{"id":"i8",` + ch + `,"start":{"site":2},"times":["1"]}`, "i8", "invalid", "times[0]"},
+		{`{"id":"i9",` + ch + `,` + ok + `,"hopping":"1"}`, "i9", "invalid", "hopping"},
+		{`{"id":"i10",` + ch + `,` + ok + `,"tolerance":0}`, "i10", "invalid", "tolerance"},
+		{`{"id":"i11",` + ch + `,` + ok + `,"method":"lanczos"}`, "i11", "invalid", "method"},
+		{`{"id":"i12",` + ch + `,` + ok + `,"dynamics":"Quantum"}`, "i12", "invalid", "dynamics"},
+		{`{"id":"i13",` + ch + `,` + ok + `,"report":["msd","foo"]}`, "i13", "invalid", "report[1]"},
+		{`{"id":"i14",` + ok + `}`, "i14", "invalid", "lattice"},
+		{`{"id":"i15",` + ch + `,"times":[1]}`, "i15", "invalid", "start"},
+		{`{"id":"i16",` + ch + `,"start":{"site":1}}`, "i16", "invalid", "times"},
+		{`{"id":"i17","lattice":{"kind":"hexagon"},` + ok + `}`, "i17", "invalid", "lattice.kind"},
+		{`{"id":"i18","lattice":{"kind":"carpet","generation":1,"variant":"edges"},"start":{"site":0},"times":[1]}`, "i18", "invalid", "lattice.variant"},
+		{`{"id":"i19","lattice":{"kind":"graph","sites":3,"bonds":[[0,3]]},"start":{"site":0},"times":[1]}`, "i19", "invalid", "lattice.bonds[0]"},
+		{`{"id":"i20","lattice":{"kind":"graph","sites":3,"bonds":[[0,1]],"positions":[[0,0],[1],[2,0]]},"start":{"site":0},"times":[1]}`, "i20", "invalid", "lattice.positions[1]"},
+		{`{"id":"i21","lattice":{"kind":"graph","sites":3,"bonds":[[0,1]],"onsite":[1]},"start":{"site":0},"times":[1]}`, "i21", "invalid", "lattice.onsite"},
+		{`{"id":"i22",` + ch + `,"start":{"site":2},"times":{"from":0,"to":1,"count":3,"spacing":"cubic"}}`, "i22", "invalid", "times.spacing"},
+		{`{"id":"i23",` + ch + `,"start":{"site":2},"times":[1e400]}`, "i23", "invalid", "times[0]"},
+		{`{"id":5,` + ch + `,` + ok + `}`, "", "invalid", "id"},
+		{`{"id":"s1","series":{"times":[1,2,2,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s1", "invalid", "series.times[2]"},
+		{`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,-3,4,5]},"report":["regimes"]}`, "s2", "invalid", "series.values[2]"},
+		{`{"id":"s3","series":{"times":[0,2,3,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s3", "invalid", "series.times[0]"},
+		{`{"id":"x1","lattice":{"kind":"hypercube","dimension":26},"start":{"site":0},"times":[1]}`, "x1", "too-large", ""},
+	}
+	lines := make([]any, len(cases))
+	for i, c := range cases {
+		lines[i] = c.line
+	}
+	res := auditLines(t, lines...)
+	for i, c := range cases {
+		r := res[i]
+		assert.Equal(t, c.id, r["id"], "line %d %s", i, c.line)
+		code, field := auditErr(t, r)
+		assert.Equal(t, c.code, code, "line %d %s: %v", i, c.line, r["error"])
+		if c.field != "" {
+			assert.Equal(t, c.field, field, "line %d %s: %v", i, c.line, r["error"])
+		}
+		if c.code == "too-large" {
+			msg := r["error"].(map[string]any)["message"].(string)
+			assert.Contains(t, msg, "bytes", "contract: the message gives the estimate")
+		}
+	}
+}
+
+// TestAuditTransport checks the Transport section: one line per request, in
+// order, blank lines skipped, CRLF accepted, nothing but JSON on the output,
+// logs only on the log writer.
+func TestAuditTransport(t *testing.T) {
+	good := `{"id":"%s","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":[1]}`
+	in := fmt.Sprintf(good, "a") + "\n\n   \n" + "garbage\n" + fmt.Sprintf(good, "b") + "\r\n" +
+		fmt.Sprintf(good, "c") // no final newline
+	res, out, log := auditServe(t, in)
+	require.Len(t, res, 4)
+	assert.Equal(t, []any{"a", "", "b", "c"}, []any{res[0]["id"], res[1]["id"], res[2]["id"], res[3]["id"]})
+	assert.Nil(t, res[0]["error"])
+	assert.Nil(t, res[2]["error"], "CRLF line ending accepted")
+	assert.Nil(t, res[3]["error"], "last line without newline")
+	assert.Equal(t, 4, strings.Count(out, "\n"), "one output line per request")
+	assert.NotEmpty(t, log, "the failure is logged on the log writer")
+	for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
+		assert.True(t, strings.HasPrefix(l, "{") && strings.HasSuffix(l, "}"), "stdout holds JSON objects only: %q", l)
+	}
+
+	// A long line (a 20000-bond graph) is read whole.
+	var b strings.Builder
+	b.WriteString(`{"id":"long","lattice":{"kind":"graph","sites":20001,"bonds":[`)
+	for i := 0; i < 20000; i++ {
+		if i > 0 {
+			b.WriteByte(',')
+		}
+		fmt.Fprintf(&b, "[%d,%d,1.0]", i, i+1)
+	}
+	b.WriteString(`]},"start":{"site":10000},"times":[1.5]}`)
+	res = auditLines(t, b.String())
+	require.Nil(t, res[0]["error"])
+	assert.InDelta(t, 2*1.5*1.5, res[0]["msd"].([]any)[0], 1e-8) // MSD = 2t² (Childs, Farhi, Gutmann 2002, from memory)
+}
+
+// TestAuditDefaults checks the Request table's defaults: hopping 1,
+// dynamics quantum, tolerance 1e-10, method auto, report ["msd","return"],
+// id "", and that the response echoes the times and has the contract's
+// diagnostics names.
+func TestAuditDefaults(t *testing.T) {
+	res := auditLines(t,
+		`{"lattice":{"kind":"chain","sites":7},"start":{"site":3},"times":[0.5,1]}`,
+		`{"id":"full","lattice":{"kind":"chain","sites":7},"hopping":1,"start":{"site":3},"dynamics":"quantum","times":[0.5,1],"tolerance":1e-10,"method":"auto","report":["msd","return"]}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"])
+		for _, k := range []string{"id", "sites", "bonds", "times", "msd", "return", "diagnostics"} {
+			assert.Contains(t, r, k)
+		}
+		for _, k := range []string{"populations", "spread", "ipr", "entropy", "polya", "average", "regimes"} {
+			assert.NotContains(t, r, k, "not asked for")
+		}
+		d := r["diagnostics"].(map[string]any)
+		for _, k := range []string{"method", "products", "norm_drift", "error_bound", "seconds"} {
+			assert.Contains(t, d, k, "diagnostics")
+		}
+	}
+	assert.Equal(t, "", res[0]["id"])
+	a, _ := json.Marshal([]any{res[0]["msd"], res[0]["return"]})
+	b, _ := json.Marshal([]any{res[1]["msd"], res[1]["return"]})
+	assert.JSONEq(t, string(b), string(a), "the defaults are hopping 1, quantum, 1e-10, auto, [msd, return]")
+}
+
+// TestAuditDisorder checks the disorder extension: no disorder equals the
+// clean walk, results are reproducible, realisations are fixed by (seed, k)
+// alone, n > 1 gives X_err and realisations.
+func TestAuditDisorder(t *testing.T) {
+	base := `{"id":"%s","lattice":{"kind":"square","width":6,"height":6},"start":{"site":14},"times":[0.5,2],"report":["msd","return","ipr"]%s}`
+	res := auditLines(t,
+		fmt.Sprintf(base, "clean", ""),
+		fmt.Sprintf(base, "zero", `,"disorder":{"onsite":0,"bond":0,"law":"box","realisations":1,"seed":3}`),
+		fmt.Sprintf(base, "n4", `,"disorder":{"onsite":2,"bond":0.4,"law":"box","realisations":4,"seed":11}`),
+		fmt.Sprintf(base, "n4again", `,"disorder":{"onsite":2,"bond":0.4,"law":"box","realisations":4,"seed":11}`),
+		fmt.Sprintf(base, "g3", `,"disorder":{"onsite":1,"bond":0.1,"law":"gauss","realisations":3,"seed":5}`),
+		fmt.Sprintf(base, "seed12", `,"disorder":{"onsite":2,"bond":0.4,"law":"box","realisations":4,"seed":12}`),
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+	}
+	for _, k := range []string{"msd", "return", "ipr"} {
+		assert.InDeltaSlice(t, res[0][k], res[1][k], 1e-12, "zero disorder is the clean walk: %s", k)
+		assert.Equal(t, res[2][k], res[3][k], "same seed, same result: %s", k)
+		assert.NotEqual(t, res[2][k], res[5][k], "another seed, another result: %s", k)
+		for _, i := range []int{2, 4} {
+			assert.Contains(t, res[i], k+"_err")
+			assert.Len(t, res[i][k+"_err"], 2)
+		}
+	}
+	assert.EqualValues(t, 4, res[2]["realisations"])
+	assert.EqualValues(t, 3, res[4]["realisations"])
+}
+
+// TestAuditSeries checks a series job on a power law: the local exponent is
+// the power and the regime kind is the documented label.
+func TestAuditSeries(t *testing.T) {
+	var ts, ys, y2 []float64
+	for k := 0; k < 40; k++ {
+		tt := math.Pow(10, -1+3*float64(k)/39)
+		ts = append(ts, tt)
+		ys = append(ys, 0.3*tt)
+		y2 = append(y2, 2*tt*tt)
+	}
+	mk := func(id string, y []float64) map[string]any {
+		return map[string]any{"id": id, "series": map[string]any{"times": ts, "values": y}, "report": []string{"regimes"}, "fit": map[string]any{"segments": 2}}
+	}
+	res := auditLines(t, mk("lin", ys), mk("quad", y2))
+	for i, want := range []float64{1, 2} {
+		r := res[i]
+		require.Nil(t, r["error"], "%v", r)
+		regs := r["regimes"].([]any)
+		require.NotEmpty(t, regs)
+		for _, g := range regs {
+			m := g.(map[string]any)
+			assert.InDelta(t, want, m["exponent"], 1e-6, "exact power law")
+			for _, k := range []string{"from", "to", "exponent", "error", "kind"} {
+				assert.Contains(t, m, k)
+			}
+		}
+		for _, le := range r["local_exponent"].([]any) {
+			assert.InDelta(t, want, le, 1e-6, "d ln y / d ln t of an exact power law")
+		}
+		assert.Contains(t, r, "crossovers")
+	}
+	assert.Equal(t, "diffusive", res[0]["regimes"].([]any)[0].(map[string]any)["kind"])
+	assert.Equal(t, "ballistic", res[1]["regimes"].([]any)[0].(map[string]any)["kind"])
+}
+
+// TestAuditSpectrumDOS checks that both DOS methods integrate to 1 over the
+// bins (contract: density of states per site, integrating to 1).
+func TestAuditSpectrumDOS(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"kpm","lattice":{"kind":"gasket","generation":4},"spectrum":{"dos":{"bins":100,"method":"kpm","moments":256}}}`,
+		`{"id":"ex","lattice":{"kind":"gasket","generation":4},"spectrum":{"dos":{"bins":100,"method":"exact"}}}`,
+		`{"id":"sq","lattice":{"kind":"square","width":30,"height":30},"spectrum":{"dos":{"bins":64,"method":"kpm","moments":128,"vectors":4,"seed":2}}}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		d := r["dos"].(map[string]any)
+		e := d["energy"].([]any)
+		rho := d["density"].([]any)
+		require.Equal(t, len(e), len(rho))
+		require.Greater(t, len(e), 1)
+		de := e[1].(float64) - e[0].(float64)
+		sum := 0.0
+		for _, x := range rho {
+			sum += x.(float64) * de
+		}
+		assert.InDelta(t, 1, sum, 1e-6, "%s: ∫ρ dE = 1 (contract)", r["id"]) // normalisation, contract
+	}
+}
