@@ -120,7 +120,6 @@ func herPanel(ar, ai []float64, n, k0, kb int, e, taur, taui, wr, wi, sw, t []fl
 		e[i] = beta
 		taur[i], taui[i] = tr, ti
 		xr[0], xi[0] = 1, 0
-		m := n - i - 1
 		yr := wr[p*n+i+1 : p*n+n]
 		yi := wi[p*n+i+1 : p*n+n]
 		if tr == 0 && ti == 0 {
@@ -128,7 +127,7 @@ func herPanel(ar, ai []float64, n, k0, kb int, e, taur, taui, wr, wi, sw, t []fl
 			clear(yi)
 			continue
 		}
-		dense.HemvSplit(m, ar[(i+1)*n+i+1:], ai[(i+1)*n+i+1:], n, xr, xi, yr, yi, sw)
+		dense.HemvSplit(n-i-1, ar[(i+1)*n+i+1:], ai[(i+1)*n+i+1:], n, xr, xi, yr, yi, sw)
 		for q := 0; q < p; q++ {
 			vr := ar[(k0+q)*n+i+1 : (k0+q)*n+n]
 			vi := ai[(k0+q)*n+i+1 : (k0+q)*n+n]
@@ -170,7 +169,6 @@ func herPanel(ar, ai []float64, n, k0, kb int, e, taur, taui, wr, wi, sw, t []fl
 			yr[c] += alr*xr[c] - ali*xi[c]
 			yi[c] += alr*xi[c] + ali*xr[c]
 		}
-		_ = m
 	}
 }
 
