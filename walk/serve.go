@@ -18,23 +18,46 @@ import (
 // (which may be nil), never to w.
 //
 // Serve returns nil at the end of input, the read or write error when r or
-// w fails, and ctx.Err() when ctx is cancelled (after answering the request
-// in flight with a "cancelled" error line).
+// w fails, and ctx.Err() when ctx is cancelled: the request in flight is
+// answered with a "cancelled" error line first, and an idle Serve returns at
+// once (its reading goroutine then ends when r next returns).
 func Serve(ctx context.Context, r io.Reader, w io.Writer, log io.Writer) error {
 	if log == nil {
 		log = io.Discard
 	}
-	br := bufio.NewReaderSize(r, 1<<16)
+	type msg struct {
+		text []byte
+		err  error
+	}
+	lines := make(chan msg)
+	done := make(chan struct{})
+	defer close(done)
+	go func() {
+		br := bufio.NewReaderSize(r, 1<<16)
+		for {
+			text, err := br.ReadBytes('\n')
+			select {
+			case lines <- msg{text, err}:
+			case <-done:
+				return
+			}
+			if err != nil {
+				return
+			}
+		}
+	}()
 	for line := 1; ; line++ {
-		if err := ctx.Err(); err != nil {
-			return err
+		var m msg
+		select {
+		case <-ctx.Done():
+			return ctx.Err()
+		case m = <-lines:
 		}
-		text, rerr := br.ReadBytes('\n')
-		if rerr != nil && !errors.Is(rerr, io.EOF) {
-			return fmt.Errorf("walk: reading request line %d: %w", line, rerr)
+		if m.err != nil && !errors.Is(m.err, io.EOF) {
+			return fmt.Errorf("walk: reading request line %d: %w", line, m.err)
 		}
-		if len(bytes.TrimSpace(text)) > 0 {
-			resp := serveLine(ctx, text, log, line)
+		if len(bytes.TrimSpace(m.text)) > 0 {
+			resp := serveLine(ctx, m.text, log, line)
 			out, err := encodeLine(resp)
 			if err != nil {
 				out, _ = encodeLine(&Response{ID: resp.ID, Error: &ErrorBody{Code: "numerical",
@@ -43,8 +66,11 @@ func Serve(ctx context.Context, r io.Reader, w io.Writer, log io.Writer) error {
 			if _, err := w.Write(out); err != nil {
 				return fmt.Errorf("walk: writing response %d: %w", line, err)
 			}
+			if err := ctx.Err(); err != nil {
+				return err
+			}
 		}
-		if rerr != nil { // io.EOF
+		if m.err != nil { // io.EOF
 			return nil
 		}
 	}

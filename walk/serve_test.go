@@ -6,6 +6,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"io"
 	"math"
 	"strings"
 	"testing"
@@ -356,4 +357,15 @@ func requireOKServe(t *testing.T, r map[string]any) {
 	t.Helper()
 	code, _ := errCode(r)
 	require.Empty(t, code, "%v", r["error"])
+}
+
+func TestServeIdleCancel(t *testing.T) {
+	// A Serve waiting for input returns as soon as its context is cancelled.
+	pr, pw := io.Pipe()
+	defer pw.Close()
+	ctx, cancel := context.WithCancel(context.Background())
+	errc := make(chan error, 1)
+	go func() { errc <- Serve(ctx, pr, io.Discard, nil) }()
+	cancel()
+	assert.ErrorIs(t, <-errc, context.Canceled)
 }

@@ -80,4 +80,23 @@ not json
 	require.True(t, errors.As(err, &ee), "want a non-zero exit, got %v", err)
 	assert.Equal(t, 1, ee.ExitCode())
 	assert.Empty(t, stdout.String())
+
+	// SIGINT while waiting for input: exit 130 (128 + SIGINT, common practice).
+	cmd = exec.Command(bin)
+	in, err := cmd.StdinPipe()
+	require.NoError(t, err)
+	defer in.Close()
+	outp, err := cmd.StdoutPipe()
+	require.NoError(t, err)
+	require.NoError(t, cmd.Start())
+	_, err = in.Write([]byte(`{"id":"a","lattice":{"kind":"chain","sites":3},"start":{"site":0},"times":[1]}` + "\n"))
+	require.NoError(t, err)
+	// Once it has answered, the bridge has installed its signal handler.
+	first, err := bufio.NewReader(outp).ReadString('\n')
+	require.NoError(t, err)
+	assert.Contains(t, first, `"id":"a"`)
+	require.NoError(t, cmd.Process.Signal(os.Interrupt))
+	err = cmd.Wait()
+	require.True(t, errors.As(err, &ee), "want a non-zero exit, got %v", err)
+	assert.Equal(t, 130, ee.ExitCode())
 }
