@@ -104,3 +104,34 @@ func TestPhi1(t *testing.T) {
 		assert.InDelta(t, 0, cmplx.Abs(phi1(z)-want), 1e-14*cmplx.Abs(want), "%v", z)
 	}
 }
+
+// TestKrylovReuse checks that closely spaced reported times are served from
+// one Krylov basis (far fewer products than one basis per time) and still
+// meet the tolerance against exact diagonalisation.
+func TestKrylovReuse(t *testing.T) {
+	n := 301
+	g := randomGraph(t, 99, n, 2*n, true, true)
+	times := make([]float64, 50)
+	for k := range times {
+		times[k] = 0.02 * float64(k+1)
+	}
+	run := func(m Method) ([][]complex128, Diagnostics) {
+		var out [][]complex128
+		d, err := Propagate(context.Background(), g.Hamiltonian(1), Quantum, basis(n, 5), times, Settings{Method: m},
+			func(_ int, _ float64, psi []complex128) error {
+				out = append(out, append([]complex128(nil), psi...))
+				return nil
+			})
+		require.NoError(t, err)
+		return out, d
+	}
+	ref, _ := run(Exact)
+	got, d := run(Krylov)
+	t.Logf("Krylov: %d products, error bound %.3g", d.Products, d.ErrorBound)
+	assert.Less(t, d.Products, 10*krylovDim, "50 times over t ≤ 1 should need a few bases")
+	assert.LessOrEqual(t, d.ErrorBound, 1e-10)
+	for k := range times {
+		// The default tolerance 1e-10 plus rounding (common practice).
+		assert.LessOrEqual(t, diffNorm(got[k], ref[k]), 1e-10+1e-12, "t=%v", times[k])
+	}
+}
