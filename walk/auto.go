@@ -24,13 +24,11 @@ const (
 	// exactMaxSites is the largest n for which Auto considers exact
 	// diagonalisation at all.
 	exactMaxSites = 2000
-	// krylovMaxSpan is the largest ‖H‖·t for which Auto takes Krylov when
-	// there are few reported times: one Lanczos basis of krylovDim vectors
-	// then covers each step, and no spectral bounds are needed.
+	// krylovMaxSpan is the largest ‖H‖·t_max for which Auto takes Krylov:
+	// one Lanczos basis of krylovDim vectors then reaches every reported
+	// time to about 1e-10 (the error falls like (‖H‖t)^m/m!), and no
+	// spectral bounds are needed.
 	krylovMaxSpan = 8
-	// krylovMaxTimes is the largest number of reported times (after t = 0)
-	// for which Auto takes Krylov.
-	krylovMaxTimes = 3
 )
 
 // choose builds the propagator for s.Method, choosing one when it is Auto
@@ -61,9 +59,9 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 		}
 		exactOK := n <= exactMaxSites && EstimateBytes(n, nnz, Exact) <= s.MemoryLimit
 		switch {
-		case steps <= krylovMaxTimes && radius*tmax <= krylovMaxSpan && n > krylovDim:
+		case radius*tmax <= krylovMaxSpan && n > krylovDim:
 			m = Krylov
-			d.Reason = fmt.Sprintf("few reported times (%d) over a short span (‖H‖·t ≤ %.3g): one small Krylov space per time is cheaper than setting up a Chebyshev expansion", steps, radius*tmax)
+			d.Reason = fmt.Sprintf("a short span (‖H‖·t_max ≤ %.3g, %d reported times): one Krylov space of %d vectors reaches every reported time, cheaper than setting up a Chebyshev expansion", radius*tmax, steps, krylovDim)
 		default:
 			var err error
 			iv, err = spectralInterval(ctx, op)

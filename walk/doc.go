@@ -47,17 +47,19 @@
 //
 // Krylov (Saad, SIAM J. Numer. Anal. 29, 209 (1992); step control after
 // Sidje, ACM TOMS 24, 130 (1998)) projects onto a Lanczos space of up to 30
-// vectors per step, with an a-posteriori error estimate choosing the step.
-// It needs no spectral bounds and wins for short spans with few reported
-// times; memory is 31 vectors.
+// vectors per step, with an a-posteriori error estimate choosing the step;
+// later reported times are served from the same space while its estimate
+// allows. It needs no spectral bounds and wins for short spans; memory is
+// 31 vectors.
 //
 // Exact diagonalises H once (O(n³) time, 32·n² bytes for a complex matrix
 // and its eigenvectors) and then costs one dense product per reported time
 // for any time, however long. It is refused with a TooLarge error when
 // EstimateBytes exceeds the memory limit.
 //
-// Auto takes Krylov for at most three reported times over a span with
-// ‖H‖·t ≤ 8 (‖H‖ from the Gershgorin bound), otherwise compares the
+// Auto takes Krylov for a short span, ‖H‖·t_max ≤ 8 (‖H‖ from the
+// Gershgorin bound; one Krylov space then serves every reported time),
+// otherwise compares the
 // predicted time of Chebyshev (a·t_max plus ≈25 products per reported time)
 // with that of diagonalising (graphs up to 2000 sites within the memory
 // limit) and takes the cheaper; Diagnostics.Reason gives the numbers.
