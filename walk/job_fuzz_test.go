@@ -1,8 +1,12 @@
 package walk
 
 import (
+	"context"
 	"encoding/json"
+	"math"
+	"strings"
 	"testing"
+	"time"
 )
 
 // FuzzDecode checks that no input makes Decode panic, that every failure
@@ -40,6 +44,58 @@ func FuzzDecode(f *testing.F) {
 		}
 		if _, err := json.Marshal(&Response{ID: job.ID, Error: b}); err != nil {
 			t.Fatalf("error line does not encode: %v", err)
+		}
+	})
+}
+
+// FuzzRun runs small decoded jobs end to end and fails on any recovered
+// internal failure (a panic turned into a "numerical" error) and on
+// non-finite output, which Run must never produce.
+func FuzzRun(f *testing.F) {
+	for _, s := range []string{
+		`{"lattice":{"kind":"gasket","generation":2},"start":{"near":[0,0]},"times":[0,0.5,1,2,3,4],"report":["msd","return","populations","spread","ipr","entropy","participation","polya","regimes","average"]}`,
+		`{"lattice":{"kind":"square","width":3,"height":3},"start":{"site":4,"second":5,"statistics":"fermions"},"times":[1,2],"disorder":{"onsite":1,"bond":0.5,"realisations":3,"seed":7},"report":["correlations","msd"]}`,
+		`{"lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-2],[1,2]],"onsite":[1,0,-1]},"remove":[2],"start":{"site":0},"dynamics":"classical","times":{"from":0.1,"to":5,"count":8,"spacing":"log"},"report":["regimes","average"],"window":{"to":5,"samples":10}}`,
+		`{"lattice":{"kind":"ring","sites":6},"spectrum":{"eigenvalues":true,"dos":{"bins":5,"method":"exact"},"ratio":true,"box_dimension":true}}`,
+		`{"series":{"times":[1,2,3,4,5],"values":[1,4,9,16,25]}}`,
+	} {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, line []byte) {
+		j, err := Decode(line)
+		if err != nil {
+			return
+		}
+		// Keep the jobs small and short.
+		if len(j.Times) > 20 || (len(j.Times) > 0 && j.Times[len(j.Times)-1] > 50) ||
+			(j.Disorder != nil && j.Disorder.Realisations > 3) ||
+			(j.Window != nil && (j.Window.Samples > 50 || j.Window.To > 50)) ||
+			math.Abs(j.Hopping) > 10 {
+			return
+		}
+		if j.Spectrum != nil && j.Spectrum.DOS != nil && (j.Spectrum.DOS.Moments > 256 || j.Spectrum.DOS.Vectors > 4) {
+			return
+		}
+		if j.Series == nil {
+			g, _, err := j.graph()
+			if err != nil || g.Len() > 200 || g.NumBonds() > 2000 {
+				return
+			}
+		}
+		ctx, cancel := context.WithTimeout(context.Background(), 20*time.Second)
+		defer cancel()
+		resp, err := j.Run(ctx, nil)
+		if err != nil {
+			if strings.Contains(err.Error(), "internal failure") {
+				t.Fatalf("recovered internal failure: %v", err)
+			}
+			return
+		}
+		if name := resp.finite(); name != "" {
+			t.Fatalf("non-finite %s", name)
+		}
+		if _, err := encodeLine(resp); err != nil {
+			t.Fatalf("response does not encode: %v", err)
 		}
 	})
 }
