@@ -65,9 +65,8 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 		e[i] /= scale
 	}
 	ws := &dcWork{
-		qg:  make([]float64, n*n),
-		s:   make([]float64, n*n),
-		out: make([]float64, n*n),
+		qg: make([]float64, n*n),
+		s:  make([]float64, n*n),
 	}
 	ok := ws.solve(n, d, e, z, ldz)
 	for i := range d[:n] {
@@ -77,7 +76,7 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 }
 
 type dcWork struct {
-	qg, s, out []float64
+	qg, s []float64 // gathered columns of Q (n²), the secular eigenvectors S (k² ≤ n²)
 }
 
 func (ws *dcWork) solve(n int, d, e, q []float64, ldq int) bool {
@@ -241,13 +240,37 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 		}
 		zh[i] = math.Copysign(math.Sqrt(math.Max(-p, 0)), w[i])
 	}
-	// S (k×k): column j is the normalised vector ẑ_i/δ_i(λ_j).
+	// Order the poles by column type (1, 2, 3): rows < m of the new vectors
+	// then need only the poles of types 1 and 2, rows ≥ m only types 2 and 3,
+	// each a contiguous band of rows of S.
+	pos := make([]int, k) // pos[i]: row of pole i in S and column in the gathers
+	var n1, n2 int
+	for _, j := range keep {
+		switch ctype[j] {
+		case 1:
+			n1++
+		case 2:
+			n2++
+		}
+	}
+	c1, c2, c3 := 0, n1, n1+n2
+	for i, j := range keep {
+		switch ctype[j] {
+		case 1:
+			pos[i], c1 = c1, c1+1
+		case 2:
+			pos[i], c2 = c2, c2+1
+		default:
+			pos[i], c3 = c3, c3+1
+		}
+	}
+	// S (k×k): column j is the normalised vector ẑ_i/δ_i(λ_j), row pos[i].
 	s := ws.s[:k*k]
 	for j := 0; j < k; j++ {
 		nrm := 0.0
 		for i := 0; i < k; i++ {
 			v := zh[i] / delta(dl, i, org[j], tau[j])
-			s[i*k+j] = v
+			s[pos[i]*k+j] = v
 			nrm += v * v
 		}
 		nrm = 1 / math.Sqrt(nrm)
@@ -255,17 +278,56 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 			s[i*k+j] *= nrm
 		}
 	}
-	// Q_new[:, 0:k] = Q[:, keep]·S, using the zero blocks: rows < m see only
-	// columns of type 1 and 2, rows ≥ m only types 2 and 3.
-	out := ws.out[:n*max(k, 1)]
-	if k > 0 {
-		ws.blockProduct(n, m, k, q, ldq, keep, ctype, s, out)
+	// Gather, in ws.qg: Q[0:m, types 1–2] (m×n12), Q[m:n, types 2–3]
+	// ((n−m)×n23) and the deflated columns (n×nd); together at most n².
+	n12, n23, nd := n1+n2, k-n1, len(defl)
+	gt := ws.qg[:m*n12]
+	gb := ws.qg[m*n12 : m*n12+(n-m)*n23]
+	gd := ws.qg[m*n12+(n-m)*n23 : m*n12+(n-m)*n23+n*nd]
+	for i := 0; i < n; i++ {
+		row := q[i*ldq : i*ldq+n]
+		if i < m {
+			g := gt[i*n12 : (i+1)*n12]
+			for t, j := range keep {
+				if p := pos[t]; p < n12 {
+					g[p] = row[j]
+				}
+			}
+		} else {
+			g := gb[(i-m)*n23 : (i-m+1)*n23]
+			for t, j := range keep {
+				if p := pos[t]; p >= n1 {
+					g[p-n1] = row[j]
+				}
+			}
+		}
+		g := gd[i*nd : (i+1)*nd]
+		for t, j := range defl {
+			g[t] = row[j]
+		}
 	}
-	// Assemble: eigenpairs (lam, out columns) and deflated (d[j], q[:, j]),
-	// sorted ascending, back into d and q.
+	// Q_new[:, 0:k] = Q[:, keep]·S, written into the first k columns of q.
+	if k > 0 {
+		if n12 > 0 {
+			dense.Gemm(false, false, m, k, n12, 1, gt, n12, s, k, 0, q, ldq)
+		} else {
+			for i := 0; i < m; i++ {
+				clear(q[i*ldq : i*ldq+k])
+			}
+		}
+		if n23 > 0 {
+			dense.Gemm(false, false, n-m, k, n23, 1, gb, n23, s[n1*k:], k, 0, q[m*ldq:], ldq)
+		} else {
+			for i := m; i < n; i++ {
+				clear(q[i*ldq : i*ldq+k])
+			}
+		}
+	}
+	// Assemble: eigenpairs (lam, columns 0…k−1 of q) and the deflated pairs
+	// (d[j], saved column), sorted ascending.
 	type pair struct {
 		v   float64
-		src int // < k: column of out; ≥ k: deflated column defl[src−k]
+		src int // < k: column of q; ≥ k: deflated column src−k
 	}
 	all := make([]pair, 0, n)
 	for i := 0; i < k; i++ {
@@ -275,76 +337,23 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 		all = append(all, pair{d[defl[t]], k + t})
 	}
 	slices.SortStableFunc(all, func(a, b pair) int { return cmpFloat(a.v, b.v) })
-	// Deflated columns are read from q; copy them out first.
-	dc := ws.qg[:n*max(len(defl), 1)]
-	nd := len(defl)
-	for i := 0; i < n; i++ {
-		row := q[i*ldq : i*ldq+n]
-		for t, j := range defl {
-			dc[i*nd+t] = row[j]
-		}
-	}
 	for c, p := range all {
 		d[c] = p.v
 	}
+	tmp := make([]float64, k)
 	for i := 0; i < n; i++ {
 		row := q[i*ldq : i*ldq+n]
-		orow := out[i*k : i*k+k]
-		drow := dc[i*nd : i*nd+nd]
+		copy(tmp, row[:k])
+		g := gd[i*nd : (i+1)*nd]
 		for c, p := range all {
 			if p.src < k {
-				row[c] = orow[p.src]
+				row[c] = tmp[p.src]
 			} else {
-				row[c] = drow[p.src-k]
+				row[c] = g[p.src-k]
 			}
 		}
 	}
 	return true
-}
-
-// blockProduct sets out (n×k) = Q[:, keep]·S exploiting the column types.
-func (ws *dcWork) blockProduct(n, m, k int, q []float64, ldq int, keep []int, ctype []int8, s, out []float64) {
-	var top, bot []int // positions t in keep
-	for t, j := range keep {
-		switch ctype[j] {
-		case 1:
-			top = append(top, t)
-		case 3:
-			bot = append(bot, t)
-		default:
-			top = append(top, t)
-			bot = append(bot, t)
-		}
-	}
-	prod := func(r0, r1 int, sel []int) {
-		rows := r1 - r0
-		nsel := len(sel)
-		if nsel == 0 {
-			for i := r0; i < r1; i++ {
-				clear(out[i*k : i*k+k])
-			}
-			return
-		}
-		g := ws.qg[:rows*nsel]
-		for i := 0; i < rows; i++ {
-			qr := q[(r0+i)*ldq : (r0+i)*ldq+n]
-			gr := g[i*nsel : i*nsel+nsel]
-			for c, t := range sel {
-				gr[c] = qr[keep[t]]
-			}
-		}
-		ss := ws.s[k*k:]
-		if len(ss) < nsel*k {
-			ss = make([]float64, nsel*k)
-		}
-		ss = ss[:nsel*k]
-		for c, t := range sel {
-			copy(ss[c*k:c*k+k], s[t*k:t*k+k])
-		}
-		dense.Gemm(false, false, rows, k, nsel, 1, g, nsel, ss, k, 0, out[r0*k:], k)
-	}
-	prod(0, m, top)
-	prod(m, n, bot)
 }
 
 func cmpFloat(a, b float64) int {
