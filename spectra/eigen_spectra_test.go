@@ -219,3 +219,44 @@ func TestTridiagEigenHard(t *testing.T) {
 		}
 	}
 }
+
+// TestSecularRootTinyWeights solves secular equations whose roots lie
+// extremely close to the poles, where bisection alone would need hundreds of
+// steps; the residual f(λ) must vanish to working precision.
+func TestSecularRootTinyWeights(t *testing.T) {
+	dl := []float64{-1, -0.5, 0, 0.25, 1}
+	for _, wt := range []float64{1e-1, 1e-8, 1e-15, 1e-30, 1e-100} {
+		w := []float64{wt, 1, wt, 1, wt}
+		nrm := 0.0
+		for _, v := range w {
+			nrm += v * v
+		}
+		for i := range w {
+			w[i] /= math.Sqrt(nrm)
+		}
+		rho := 0.7
+		prev := math.Inf(-1)
+		for i := range dl {
+			o, tt, ok := secularRoot(i, dl, w, rho)
+			if !ok {
+				t.Fatalf("w=%g root %d: no convergence", wt, i)
+			}
+			lam := dl[o] + tt
+			if lam < dl[i] || (i+1 < len(dl) && lam > dl[i+1]) || lam < prev {
+				t.Fatalf("w=%g root %d = %g outside its interval", wt, i, lam)
+			}
+			prev = lam
+			// f(λ) = 1 + ρΣ w_j²/(dl_j − λ) evaluated in shifted form; the
+			// bound 1e-12·(1 + ρΣ|w_j²/δ_j|) is common practice.
+			f, sa := 1.0, 1.0
+			for j := range dl {
+				v := rho * w[j] * w[j] / delta(dl, j, o, tt)
+				f += v
+				sa += math.Abs(v)
+			}
+			if math.Abs(f) > 1e-12*sa {
+				t.Errorf("w=%g root %d: f = %g (scale %g)", wt, i, f, sa)
+			}
+		}
+	}
+}

@@ -15,7 +15,8 @@ import "math"
 // functions matching value and slope at the iterate and solves the model
 // exactly (Bunch, Nielsen & Sorensen, Numer. Math. 31, 31 (1978)); a step
 // leaving the bracket, which f's monotonicity maintains, is replaced by
-// bisection. ok is false only if 200 steps did not converge.
+// bisection. ok is false only if 1200 steps (enough to bisect the whole
+// float64 range) did not converge.
 func secularRoot(i int, dl, w []float64, rho float64) (o int, t float64, ok bool) {
 	k := len(dl)
 	if k == 1 {
@@ -42,7 +43,7 @@ func secularRoot(i int, dl, w []float64, rho float64) (o int, t float64, ok bool
 	}
 	const eps = 0x1p-53
 	t = (lo + hi) / 2
-	for iter := 0; iter < 200; iter++ {
+	for iter := 0; iter < 1200; iter++ {
 		var psi, phi, dpsi, dphi float64
 		for j := 0; j <= i; j++ {
 			r := w[j] / ((dl[j] - dl[o]) - t)
