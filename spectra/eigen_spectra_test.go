@@ -201,6 +201,9 @@ func TestTridiagEigenHard(t *testing.T) {
 		d := append([]float64(nil), c.d...)
 		e := append([]float64(nil), c.e...)
 		z := make([]float64, n*n)
+		for i := range z {
+			z[i] = math.NaN() // the solver must overwrite every entry
+		}
 		if !tridiagEigen(n, d, e, z, n) {
 			t.Fatalf("%s n=%d: no convergence", c.name, n)
 		}

@@ -16,8 +16,8 @@ const dcLeaf = 32
 // tridiagEigen computes all eigenvalues (ascending, into d) and eigenvectors
 // of the symmetric tridiagonal matrix with diagonal d[:n] and off-diagonal
 // e[:n−1] (e is destroyed). z (row-major, leading dimension ldz ≥ n) receives
-// the eigenvectors, z[i·ldz + k] = component i of eigenvector k; it is
-// overwritten entirely.
+// the eigenvectors, z[i·ldz + k] = component i of eigenvector k; its n×n
+// block is overwritten entirely (each level clears the blocks it needs zero).
 //
 // Divide and conquer (Cuppen, Numer. Math. 36, 177 (1981)): T is torn into
 // two halves by a rank-one modification, the halves are solved recursively,
@@ -36,9 +36,6 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 	if n == 0 {
 		return true
 	}
-	for i := 0; i < n; i++ {
-		clear(z[i*ldz : i*ldz+n])
-	}
 	if n == 1 {
 		z[0] = 1
 		return true
@@ -54,6 +51,7 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 	}
 	if scale == 0 {
 		for i := 0; i < n; i++ {
+			clear(z[i*ldz : i*ldz+n])
 			z[i*ldz+i] = 1
 		}
 		return true
