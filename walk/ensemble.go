@@ -3,10 +3,10 @@ package walk
 import (
 	"context"
 	"fmt"
-	"math"
 	"sync"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/observables"
 )
 
 // Ensemble runs fn for the realisations r = 0 … n−1 on at most workers
@@ -87,40 +87,20 @@ func safeCall[R any](ctx context.Context, r int, fn func(ctx context.Context, r 
 	return fn(ctx, r)
 }
 
-// MeanErr returns the mean over samples of each entry and the standard error
-// of that mean, sqrt(Σ(x − x̄)² / (m(m−1))) for m samples (zero for m = 1).
-// Every sample must have the same length. Entries are summed in sample
-// order, so the result does not depend on how the samples were computed.
-func MeanErr(samples [][]float64) (mean, stderr []float64) {
-	m := len(samples)
-	if m == 0 {
-		return nil, nil
+// MeanErr returns the element-wise mean over samples and the standard
+// error of that mean (zero for one sample), folding the samples in order
+// with observables.Ensemble, so the result does not depend on how the
+// samples were computed. Every sample must have the same length ≥ 1; a
+// non-finite value is an error.
+func MeanErr(samples [][]float64) (mean, stderr []float64, err error) {
+	if len(samples) == 0 {
+		return nil, nil, nil
 	}
-	L := len(samples[0])
-	mean = make([]float64, L)
-	stderr = make([]float64, L)
-	for _, s := range samples {
-		if len(s) != L {
-			panic("walk: MeanErr samples of different lengths")
-		}
-		for i, v := range s {
-			mean[i] += v
+	e := observables.NewEnsemble(len(samples[0]))
+	for r, s := range samples {
+		if err := e.Add(r, s); err != nil {
+			return nil, nil, &fault.Error{Kind: fault.Numerical, Msg: fmt.Sprintf("realisation %d: %v", r, err)}
 		}
 	}
-	for i := range mean {
-		mean[i] /= float64(m)
-	}
-	if m == 1 {
-		return mean, stderr
-	}
-	for _, s := range samples {
-		for i, v := range s {
-			d := v - mean[i]
-			stderr[i] += d * d
-		}
-	}
-	for i := range stderr {
-		stderr[i] = math.Sqrt(stderr[i] / float64(m*(m-1)))
-	}
-	return mean, stderr
+	return e.Mean(nil), e.StdErr(nil), nil
 }

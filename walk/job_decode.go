@@ -294,10 +294,14 @@ func decodeTimeRange(raw json.RawMessage) ([]float64, error) {
 	if spacing == "log" && a <= 0 {
 		return nil, fault.Range("times.from", "positive for log spacing", a)
 	}
-	return expandTimes(a, b, n, spacing == "log"), nil
+	return TimeGrid(a, b, n, spacing == "log"), nil
 }
 
-func expandTimes(a, b float64, n int, log bool) []float64 {
+// TimeGrid returns the n times of the job format's {"from": a, "to": b,
+// "count": n, "spacing": …} form: linear a + (b−a)k/(n−1), or with log
+// a·(b/a)^(k/(n−1)) (a > 0); both hold a and b exactly and never decrease.
+// n = 1 gives [a].
+func TimeGrid(a, b float64, n int, log bool) []float64 {
 	ts := make([]float64, n)
 	for k := range ts {
 		if n == 1 {

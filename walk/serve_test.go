@@ -303,7 +303,8 @@ func TestServeDisorderReproducible(t *testing.T) {
 			samples[k] = floats(t, r["msd"])
 			assert.NotContains(t, r, "msd_err")
 		}
-		mean, se := MeanErr(samples)
+		mean, se, err := MeanErr(samples)
+		require.NoError(t, err)
 		assert.Equal(t, mean, floats(t, a[0]["msd"]))
 		assert.Equal(t, se, floats(t, a[0]["msd_err"]))
 		// Different realisations differ.

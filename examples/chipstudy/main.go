@@ -152,7 +152,7 @@ func (s *scenario) job(r run) *walk.Job {
 		Lattice:   lat,
 		Hopping:   1,
 		Start:     &walk.StartSpec{Near: r.Start, Second: -1},
-		Times:     logTimes(s.TMin, s.TMax, s.Points),
+		Times:     walk.TimeGrid(s.TMin, s.TMax, s.Points, true),
 		Tolerance: s.Tolerance,
 		Report:    []string{"msd", "return", "regimes"},
 		Fit:       walk.FitSpec{Quantity: "msd", Segments: 4},
@@ -178,15 +178,6 @@ func (s *scenario) polyaJob(r run) *walk.Job {
 	j.ID += "/polya"
 	j.Report = []string{"return", "polya"}
 	return j
-}
-
-func logTimes(a, b float64, n int) []float64 {
-	ts := make([]float64, n)
-	for k := range ts {
-		ts[k] = a * math.Pow(b/a, float64(k)/float64(n-1))
-	}
-	ts[0], ts[n-1] = a, b
-	return ts
 }
 
 func study(ctx context.Context, s scenario, stdout, stderr io.Writer) error {
