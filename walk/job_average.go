@@ -107,31 +107,9 @@ func (j *Job) windowAverage(ctx context.Context, g *lattice.Graph, s0 int, set S
 	for k := range ts {
 		ts[k] = j.Window.To * float64(k) / float64(m)
 	}
-	n := g.Len()
 	var w observables.WindowAverage
-	p := make([]float64, n)
-	visit := func(k int, t float64, state []complex128) error {
-		if j.Dynamics == Classical {
-			for i, a := range state {
-				p[i] = real(a)
-			}
-		} else {
-			observables.Probabilities(p, state)
-		}
-		return w.Add(t, p)
-	}
-	var err error
-	if j.Dynamics == Classical {
-		p0 := make([]float64, n)
-		p0[s0] = 1
-		_, err = ClassicalWalk(ctx, g, j.Hopping, p0, ts, set, visit)
-	} else {
-		psi0 := make([]complex128, n)
-		psi0[s0] = 1
-		_, err = QuantumWalk(ctx, g, j.Hopping, psi0, ts, set, visit)
-	}
-	if err != nil {
-		return nil, propagationError(err)
+	if _, err := j.evolve(ctx, g, s0, ts, set, func(k int, p []float64) error { return w.Add(ts[k], p) }); err != nil {
+		return nil, err
 	}
 	return w.Mean(nil), nil
 }

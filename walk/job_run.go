@@ -230,7 +230,7 @@ func (j *Job) runWalk(ctx context.Context, log io.Writer) (*Response, error) {
 
 // walkOnce propagates one realisation and reduces each state as it comes.
 func (j *Job) walkOnce(ctx context.Context, g *lattice.Graph, s0, s1, workers int) (*trace, error) {
-	n, T := g.Len(), len(j.Times)
+	T := len(j.Times)
 	coords, dim := g.Coords(), g.Dim()
 	origin := g.Pos(nil, s0)
 	tr := &trace{}
@@ -246,15 +246,7 @@ func (j *Job) walkOnce(ctx context.Context, g *lattice.Graph, s0, s1, workers in
 	if j.reports("populations") {
 		tr.pops = make([][]float64, T)
 	}
-	p := make([]float64, n)
-	visit := func(k int, t float64, state []complex128) error {
-		if j.Dynamics == Classical {
-			for i, a := range state {
-				p[i] = real(a)
-			}
-		} else {
-			observables.Probabilities(p, state)
-		}
+	visit := func(k int, p []float64) error {
 		if tr.msd != nil {
 			tr.msd[k] = observables.MSD(p, coords, dim, origin)
 		}
@@ -279,24 +271,14 @@ func (j *Job) walkOnce(ctx context.Context, g *lattice.Graph, s0, s1, workers in
 		return nil
 	}
 	set := Settings{Method: j.Method, Tolerance: j.Tolerance, Workers: workers}
-	var err error
-	if j.Dynamics == Classical {
-		p0 := make([]float64, n)
-		p0[s0] = 1
-		tr.diag, err = ClassicalWalk(ctx, g, j.Hopping, p0, j.Times, set, visit)
-	} else {
-		psi0 := make([]complex128, n)
-		psi0[s0] = 1
-		if s1 >= 0 {
-			err = j.correlations(ctx, g, s0, s1, set, tr)
-			if err != nil {
-				return nil, err
-			}
+	if s1 >= 0 {
+		if err := j.correlations(ctx, g, s0, s1, set, tr); err != nil {
+			return nil, err
 		}
-		tr.diag, err = QuantumWalk(ctx, g, j.Hopping, psi0, j.Times, set, visit)
 	}
-	if err != nil {
-		return nil, propagationError(err)
+	var err error
+	if tr.diag, err = j.evolve(ctx, g, s0, j.Times, set, visit); err != nil {
+		return nil, err
 	}
 	if j.reports("polya") {
 		var rs []float64
@@ -315,6 +297,38 @@ func (j *Job) walkOnce(ctx context.Context, g *lattice.Graph, s0, s1, workers in
 		}
 	}
 	return tr, nil
+}
+
+// evolve propagates the basis state on s0 under the job's dynamics and
+// hands visit the probabilities p_j at each of times: |ψ_j|² for the
+// quantum walk, the real parts of the state for the classical one. p is
+// reused between calls.
+func (j *Job) evolve(ctx context.Context, g *lattice.Graph, s0 int, times []float64, set Settings,
+	visit func(k int, p []float64) error) (Diagnostics, error) {
+	n := g.Len()
+	p := make([]float64, n)
+	var d Diagnostics
+	var err error
+	if j.Dynamics == Classical {
+		p0 := make([]float64, n)
+		p0[s0] = 1
+		d, err = ClassicalWalk(ctx, g, j.Hopping, p0, times, set, func(k int, _ float64, state []complex128) error {
+			for i, a := range state {
+				p[i] = real(a)
+			}
+			return visit(k, p)
+		})
+	} else {
+		psi0 := make([]complex128, n)
+		psi0[s0] = 1
+		d, err = QuantumWalk(ctx, g, j.Hopping, psi0, times, set, func(k int, _ float64, state []complex128) error {
+			return visit(k, observables.Probabilities(p, state))
+		})
+	}
+	if err != nil {
+		return d, propagationError(err)
+	}
+	return d, nil
 }
 
 // propagationError maps a propagator error to the job format: input errors
