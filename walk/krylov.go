@@ -41,7 +41,8 @@ type krylov struct {
 	l         *lanczos
 
 	theta, s, e, work []float64
-	w                 []complex128
+	w, tw, tw2        []complex128
+	normT             float64 // max |θ| of the current T_m
 
 	// reuse describes the basis of the last step, kept so that a later
 	// reported time can be reached from it without new products.
@@ -59,7 +60,8 @@ func newKrylov(op Operator, classical bool) *krylov {
 	m := min(krylovDim, op.Len())
 	return &krylov{classical: classical, l: newLanczos(op, m),
 		theta: make([]float64, m), s: make([]float64, m*m), e: make([]float64, m),
-		work: make([]float64, max(2, 2*m)), w: make([]complex128, m)}
+		work: make([]float64, max(2, 2*m)), w: make([]complex128, m),
+		tw: make([]complex128, m), tw2: make([]complex128, m)}
 }
 
 func (k *krylov) name() string { return "krylov" }
@@ -116,6 +118,7 @@ func (k *krylov) step(ctx context.Context, psi []complex128, dt, tol float64) (i
 			return prods, errSum, numerical("the tridiagonal eigenvalue iteration of the Krylov step did not converge")
 		}
 		h := k.l.beta[m-1]
+		k.normT = math.Max(math.Abs(k.theta[0]), math.Abs(k.theta[m-1]))
 		tau, est := rem, 0.0
 		if h != 0 {
 			tau, est = k.chooseStep(m, beta, h, rem, tol/dt)
@@ -143,7 +146,17 @@ func (k *krylov) step(ctx context.Context, psi []complex128, dt, tol float64) (i
 
 // estimate returns Saad's error estimate for a step τ with the current
 // basis of size m.
+//
+// For short steps the quantity e_mᵀφ₁(τA)e_1 (A = −iT_m or −T_m) is tiny,
+// of order (τ‖T‖)^{m−1}/m!, and the eigen-decomposition yields it only to
+// an absolute error of order ε, which would stall the step control. There
+// it is summed from the Taylor series Σ_k e_mᵀ(τA)^k e_1/(k+1)!, whose terms
+// have an exactly zero m-th component for k < m−1 (A is tridiagonal), so
+// the sum keeps its relative accuracy.
 func (k *krylov) estimate(m int, beta, h, tau float64) float64 {
+	if tau*k.normT <= taylorLimit {
+		return beta * h * tau * cmplx.Abs(k.lastPhi1Taylor(m, tau))
+	}
 	z := k.z()
 	var sum complex128
 	for j := 0; j < m; j++ {
@@ -151,6 +164,47 @@ func (k *krylov) estimate(m int, beta, h, tau float64) float64 {
 		sum += complex(c, 0) * phi1(z*complex(k.theta[j]*tau, 0))
 	}
 	return beta * h * tau * cmplx.Abs(sum)
+}
+
+// taylorLimit is the largest τ‖T_m‖ for which estimate sums the Taylor
+// series (its terms then stay below e^8 ≈ 3000 in size).
+const taylorLimit = 8
+
+// lastPhi1Taylor returns e_mᵀφ₁(τA)e_1 from the Taylor series, with
+// w_k = (τA)^k e_1/(k+1)! updated as w_{k+1} = τA w_k/(k+2).
+func (k *krylov) lastPhi1Taylor(m int, tau float64) complex128 {
+	w, nw := k.tw[:m], k.tw2[:m]
+	for i := range w {
+		w[i] = 0
+	}
+	w[0] = 1
+	z := k.z() * complex(tau, 0)
+	al, be := k.l.alpha, k.l.beta
+	var sum complex128
+	for q := 0; q < m+400; q++ {
+		sum += w[m-1]
+		var big float64
+		for i := 0; i < m; i++ {
+			v := complex(al[i], 0) * w[i]
+			if i > 0 {
+				v += complex(be[i-1], 0) * w[i-1]
+			}
+			if i+1 < m {
+				v += complex(be[i], 0) * w[i+1]
+			}
+			v *= z / complex(float64(q+2), 0)
+			nw[i] = v
+			big = math.Max(big, cmplx.Abs(v))
+		}
+		w, nw = nw, w
+		if q >= m-1 && big <= 1e-18*cmplx.Abs(sum) {
+			break
+		}
+		if big == 0 {
+			break
+		}
+	}
+	return sum
 }
 
 // chooseStep returns the largest τ ≤ rem on the grid rem·0.8^j whose error

@@ -135,3 +135,84 @@ func TestKrylovReuse(t *testing.T) {
 		assert.LessOrEqual(t, diffNorm(got[k], ref[k]), 1e-10+1e-12, "t=%v", times[k])
 	}
 }
+
+// TestToleranceStress is a longer seeded sweep (skipped with -short): larger
+// random graphs, with and without phases, long times, tolerances from 1e-3
+// to 1e-12; every Krylov and Chebyshev state must lie within the tolerance
+// of the exact one.
+func TestToleranceStress(t *testing.T) {
+	if testing.Short() {
+		t.Skip("long sweep")
+	}
+	rng := rand.New(rand.NewPCG(7, 7))
+	for trial := 0; trial < 4; trial++ {
+		n := 200 + rng.IntN(300)
+		phases := trial%2 == 0
+		g := randomGraph(t, rng.Uint64(), n, (1+rng.IntN(4))*n, true, phases)
+		for _, dyn := range []Dynamics{Quantum, Classical} {
+			op := g.Hamiltonian(0.5 + rng.Float64())
+			if dyn == Classical {
+				op = g.Laplacian(0.5 + rng.Float64())
+			}
+			start := rng.IntN(n)
+			times := []float64{1e-3, 0.4, 3, 3.5, 30, 31, 250}
+			run := func(m Method, tol float64) [][]complex128 {
+				var out [][]complex128
+				_, err := Propagate(context.Background(), op, dyn, basis(n, start), times, Settings{Method: m, Tolerance: tol},
+					func(_ int, _ float64, psi []complex128) error {
+						out = append(out, append([]complex128(nil), psi...))
+						return nil
+					})
+				require.NoError(t, err)
+				return out
+			}
+			ref := run(Exact, 1e-13)
+			for _, tol := range []float64{1e-3, 1e-6, 1e-9, 1e-12} {
+				for _, m := range []Method{Krylov, Chebyshev} {
+					got := run(m, tol)
+					for k := range times {
+						// The tolerance plus the reference's rounding (common practice).
+						assert.LessOrEqual(t, diffNorm(got[k], ref[k]), tol+1e-11, "trial %d n=%d %v %v tol=%g t=%v", trial, n, dyn, m, tol, times[k])
+					}
+				}
+			}
+		}
+	}
+}
+
+// TestKrylovEstimateForms checks that the Taylor and eigen-decomposition
+// forms of Saad's estimate agree where both are accurate (τ‖T‖ between 1
+// and taylorLimit), and that the Taylor form keeps falling like τ^m for
+// short steps, where the eigen form stalls at rounding.
+func TestKrylovEstimateForms(t *testing.T) {
+	g := randomGraph(t, 5, 200, 400, true, true)
+	for _, classical := range []bool{false, true} {
+		op := g.Hamiltonian(1)
+		if classical {
+			op = g.Laplacian(1)
+		}
+		k := newKrylov(op, classical)
+		psi := basis(200, 9)
+		m, _, err := k.l.run(context.Background(), psi, 1)
+		require.NoError(t, err)
+		require.True(t, tridiagEigen(k.l.alpha, k.l.beta, m, k.theta, k.s, k.e, k.work))
+		k.normT = math.Max(math.Abs(k.theta[0]), math.Abs(k.theta[m-1]))
+		h := k.l.beta[m-1]
+		for _, x := range []float64{1, 3, 7} {
+			tau := x / k.normT
+			taylor := k.estimate(m, 1, h, tau)
+			saved := k.normT
+			k.normT = math.Inf(1) // force the eigen form
+			eig := k.estimate(m, 1, h, tau)
+			k.normT = saved
+			// Agreement to rounding relative to the O(1) terms the eigen form sums
+			// (common practice).
+			assert.InDelta(t, eig, taylor, 1e-12+1e-9*eig, "classical=%v τ‖T‖=%v", classical, x)
+		}
+		// Halving a short step divides the estimate by about 2^m.
+		a := k.estimate(m, 1, h, 0.02/k.normT)
+		b := k.estimate(m, 1, h, 0.01/k.normT)
+		require.Greater(t, b, 0.0)
+		assert.InDelta(t, float64(m), math.Log2(a/b), 0.5, "classical=%v", classical)
+	}
+}
