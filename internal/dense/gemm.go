@@ -5,13 +5,14 @@ import (
 	"sync"
 )
 
-// Blocking of the packed product: micro-tiles of mr×nr, A blocks of mc×kc
-// (kept in L2), B slabs of kc×n in strips of nr (one strip in L1).
+// Blocking of the packed product: micro-tiles of mr×nr (nr = panelWidth,
+// 8 or 16), A blocks of mc×kc (kept in L2), B slabs of kc×n in strips of nr
+// (one strip in L1).
 const (
-	mr = 6
-	nr = 8
-	kc = 256
-	mc = 120
+	mr    = 6
+	maxNR = 16
+	kc    = 256
+	mc    = 120
 )
 
 // Gemm computes C = α·op(A)·op(B) + β·C for row-major matrices, with
@@ -42,6 +43,7 @@ func Gemm(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b []flo
 	if k <= 0 || alpha == 0 {
 		return
 	}
+	nr := panelWidth
 	w := runtime.GOMAXPROCS(0)
 	if flops := 2 * float64(m) * float64(n) * float64(k); flops < 4e6 {
 		w = 1
@@ -90,6 +92,7 @@ func getBuf(n int) *[]float64 {
 
 // gemmSerial is C += α·op(A)·op(B) on one goroutine.
 func gemmSerial(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b []float64, ldb int, c []float64, ldc int) {
+	nr := panelWidth
 	nStrips := (n + nr - 1) / nr
 	kb0 := min(kc, k)
 	bpp := getBuf(nStrips * nr * kb0)
@@ -97,10 +100,10 @@ func gemmSerial(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b
 	defer packPool.Put(bpp)
 	defer packPool.Put(app)
 	bp, ap := *bpp, *app
-	var tmp [mr * nr]float64
+	var tmp [mr * maxNR]float64
 	for pc := 0; pc < k; pc += kc {
 		kb := min(kc, k-pc)
-		packB(bp, tB, b, ldb, pc, kb, n)
+		packB(bp, nr, tB, b, ldb, pc, kb, n)
 		for ic := 0; ic < m; ic += mc {
 			mb := min(mc, m-ic)
 			packA(ap, tA, a, lda, ic, pc, mb, kb, alpha)
@@ -113,11 +116,11 @@ func gemmSerial(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b
 					mh := min(mr, mb-t*mr)
 					as := ap[t*kb*mr : (t+1)*kb*mr]
 					if mh == mr && nw == nr {
-						kern6x8(kb, as, bs, c[i0*ldc+j0:], ldc)
+						kern6xN(nr, kb, as, bs, c[i0*ldc+j0:], ldc)
 						continue
 					}
 					clear(tmp[:])
-					kern6x8(kb, as, bs, tmp[:], nr)
+					kern6xN(nr, kb, as, bs, tmp[:], nr)
 					for i := 0; i < mh; i++ {
 						row := c[(i0+i)*ldc+j0 : (i0+i)*ldc+j0+nw]
 						for j := range row {
@@ -132,7 +135,7 @@ func gemmSerial(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b
 
 // packB copies rows pc…pc+kb−1 of op(B) (k×n) into strips of nr columns:
 // bp[s·kb·nr + p·nr + j] = op(B)[pc+p, s·nr+j], zero-padded.
-func packB(bp []float64, tB bool, b []float64, ldb, pc, kb, n int) {
+func packB(bp []float64, nr int, tB bool, b []float64, ldb, pc, kb, n int) {
 	for j0, s := 0, 0; j0 < n; j0, s = j0+nr, s+1 {
 		nw := min(nr, n-j0)
 		dst := bp[s*kb*nr : (s+1)*kb*nr]

@@ -25,6 +25,46 @@ var hasAVX2FMA = func() bool {
 	return b7&(1<<5) != 0
 }()
 
+//go:noescape
+func kern6x16avx512(k int, a, b, c *float64, ldc int)
+
+// hasAVX512 reports AVX-512F with OS support of the ZMM state (CPUID leaf 7
+// EBX bit 16; XCR0 bits 5–7), on top of AVX2/FMA.
+var hasAVX512 = func() bool {
+	if !hasAVX2FMA {
+		return false
+	}
+	if xa, _ := xgetbv(); xa&0xe6 != 0xe6 {
+		return false
+	}
+	_, b7, _, _ := cpuid(7, 0)
+	return b7&(1<<16) != 0
+}()
+
+// panelWidth is the number of columns of the micro-tile: 16 with AVX-512,
+// otherwise 8.
+var panelWidth = func() int {
+	if hasAVX512 {
+		return 16
+	}
+	return 8
+}()
+
+// kern6xN is C[0:6, 0:nr] += Σ_p a[6p:6p+6] ⊗ b[nr·p:nr·p+nr] for the
+// micro-tile width nr = panelWidth.
+func kern6xN(nr, k int, a, b, c []float64, ldc int) {
+	if nr == 16 {
+		if k > 0 {
+			_ = a[6*k-1]
+			_ = b[16*k-1]
+			_ = c[5*ldc+15]
+			kern6x16avx512(k, &a[0], &b[0], &c[0], ldc)
+		}
+		return
+	}
+	kern6x8(k, a, b, c, ldc)
+}
+
 // kern6x8 is C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[8p:8p+8] for C row-major
 // with stride ldc; len(a) ≥ 6k, len(b) ≥ 8k, len(c) ≥ 5·ldc + 8.
 func kern6x8(k int, a, b, c []float64, ldc int) {

@@ -5,9 +5,12 @@ import "testing"
 // TestPortableKernels runs the product tests with the AVX2 kernels switched
 // off, so that the Go fallbacks used on other machines are exercised here.
 func TestPortableKernels(t *testing.T) {
-	saved := hasAVX2FMA
+	s1, s2 := hasAVX2FMA, panelWidth
+	defer func() { hasAVX2FMA, panelWidth = s1, s2 }()
+	// AVX2 only (8-wide tiles), then no vector kernels at all.
+	panelWidth = 8
+	TestGemmAgainstLoop(t)
 	hasAVX2FMA = false
-	defer func() { hasAVX2FMA = saved }()
 	TestGemmAgainstLoop(t)
 	TestSymvUpper(t)
 }

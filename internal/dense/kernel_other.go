@@ -5,3 +5,8 @@ package dense
 func kern6x8(k int, a, b, c []float64, ldc int) { kern6x8go(k, a, b, c, ldc) }
 
 func symvRow(row, xs, ys []float64, xi float64, s *float64) { symvRowGo(row, xs, ys, xi, s) }
+
+// panelWidth is the number of columns of the micro-tile.
+var panelWidth = 8
+
+func kern6xN(nr, k int, a, b, c []float64, ldc int) { kern6x8(k, a, b, c, ldc) }
