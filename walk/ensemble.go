@@ -3,6 +3,7 @@ package walk
 import (
 	"context"
 	"fmt"
+	"math"
 	"sync"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
@@ -90,17 +91,25 @@ func safeCall[R any](ctx context.Context, r int, fn func(ctx context.Context, r 
 // MeanErr returns the element-wise mean over samples and the standard
 // error of that mean (zero for one sample), folding the samples in order
 // with observables.Ensemble, so the result does not depend on how the
-// samples were computed. Every sample must have the same length ≥ 1; a
-// non-finite value is an error.
-func MeanErr(samples [][]float64) (mean, stderr []float64, err error) {
+// samples were computed. Every sample must have the same length ≥ 1. A
+// non-finite value makes every entry of both results NaN (callers that
+// report them check for that; the job format never prints NaN).
+func MeanErr(samples [][]float64) (mean, stderr []float64) {
 	if len(samples) == 0 {
-		return nil, nil, nil
+		return nil, nil
 	}
 	e := observables.NewEnsemble(len(samples[0]))
 	for r, s := range samples {
+		if len(s) != len(samples[0]) {
+			panic("walk: MeanErr samples of different lengths")
+		}
 		if err := e.Add(r, s); err != nil {
-			return nil, nil, &fault.Error{Kind: fault.Numerical, Msg: fmt.Sprintf("realisation %d: %v", r, err)}
+			mean, stderr = make([]float64, len(s)), make([]float64, len(s))
+			for i := range mean {
+				mean[i], stderr[i] = math.NaN(), math.NaN()
+			}
+			return mean, stderr
 		}
 	}
-	return e.Mean(nil), e.StdErr(nil), nil
+	return e.Mean(nil), e.StdErr(nil)
 }

@@ -15,17 +15,17 @@ func isCancel(err error) bool {
 
 // combine fills resp from the realisations' traces: means, and with more
 // than one realisation the standard errors (X_err), in realisation order.
-func (j *Job) combine(resp *Response, trs []*trace) (err error) {
+func (j *Job) combine(resp *Response, trs []*trace) error {
 	multi := len(trs) > 1
 	pick := func(f func(*trace) []float64) (mean, se []float64) {
-		if f(trs[0]) == nil || err != nil {
+		if f(trs[0]) == nil {
 			return nil, nil
 		}
 		s := make([][]float64, len(trs))
 		for r, tr := range trs {
 			s[r] = f(tr)
 		}
-		mean, se, err = MeanErr(s)
+		mean, se = MeanErr(s)
 		if !multi {
 			se = nil
 		}
@@ -111,9 +111,6 @@ func (j *Job) combine(resp *Response, trs []*trace) (err error) {
 		} else if err := j.regimes(resp, j.Times, curve(trs[0]), nil); err != nil {
 			return err
 		}
-	}
-	if err != nil {
-		return err
 	}
 	d := &JobDiagnostics{Method: trs[0].diag.Method, Reason: trs[0].diag.Reason}
 	for _, tr := range trs {

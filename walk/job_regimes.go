@@ -114,6 +114,6 @@ func (j *Job) ensembleRegimes(resp *Response, curves [][]float64) error {
 		return fitError(err, false)
 	}
 	setRegimes(resp, avg.Regimes, avg.Crossovers)
-	resp.LocalExponent, resp.LocalExponentErr, err = MeanErr(les)
-	return err
+	resp.LocalExponent, resp.LocalExponentErr = MeanErr(les)
+	return nil
 }
