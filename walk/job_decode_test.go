@@ -172,29 +172,32 @@ func TestDecodeExtensions(t *testing.T) {
 	assert.Equal(t, &DOSSpec{Bins: 20, Method: "exact", Moments: 512, Vectors: 10}, j.Spectrum.DOS)
 }
 
+// kindExamples holds a small valid lattice object of every kind.
+var kindExamples = map[string]string{
+	"chain":      `{"kind":"chain","sites":5,"periodic":true}`,
+	"square":     `{"kind":"square","width":3,"height":2,"periodic":false}`,
+	"triangle":   `{"kind":"triangle","side":3}`,
+	"gasket":     `{"kind":"gasket","generation":2}`,
+	"carpet":     `{"kind":"carpet","generation":1,"variant":"corners"}`,
+	"hypercube":  `{"kind":"hypercube","dimension":3}`,
+	"graph":      `{"kind":"graph","sites":2,"bonds":[[0,1]]}`,
+	"ring":       `{"kind":"ring","sites":5}`,
+	"triangular": `{"kind":"triangular","width":3,"height":3,"periodic":true}`,
+	"honeycomb":  `{"kind":"honeycomb","width":3,"height":3}`,
+	"kagome":     `{"kind":"kagome","width":3,"height":3}`,
+	"lieb":       `{"kind":"lieb","width":3,"height":3}`,
+	"cubic":      `{"kind":"cubic","width":2,"height":2,"depth":2}`,
+	"complete":   `{"kind":"complete","sites":4}`,
+	"star":       `{"kind":"star","leaves":4}`,
+	"cayley":     `{"kind":"cayley","coordination":3,"shells":2}`,
+	"vicsek":     `{"kind":"vicsek","generation":1}`,
+	"tfractal":   `{"kind":"tfractal","generation":1}`,
+	"fibonacci":  `{"kind":"fibonacci","sites":8,"weak":0.5,"strong":1}`,
+	"harper":     `{"kind":"harper","sites":8,"lambda":2,"beta":0.618,"phase":0}`,
+}
+
 func TestEveryKindDecodes(t *testing.T) {
-	lines := map[string]string{
-		"chain":      `{"kind":"chain","sites":5,"periodic":true}`,
-		"square":     `{"kind":"square","width":3,"height":2,"periodic":false}`,
-		"triangle":   `{"kind":"triangle","side":3}`,
-		"gasket":     `{"kind":"gasket","generation":2}`,
-		"carpet":     `{"kind":"carpet","generation":1,"variant":"corners"}`,
-		"hypercube":  `{"kind":"hypercube","dimension":3}`,
-		"graph":      `{"kind":"graph","sites":2,"bonds":[[0,1]]}`,
-		"ring":       `{"kind":"ring","sites":5}`,
-		"triangular": `{"kind":"triangular","width":3,"height":3,"periodic":true}`,
-		"honeycomb":  `{"kind":"honeycomb","width":3,"height":3}`,
-		"kagome":     `{"kind":"kagome","width":3,"height":3}`,
-		"lieb":       `{"kind":"lieb","width":3,"height":3}`,
-		"cubic":      `{"kind":"cubic","width":2,"height":2,"depth":2}`,
-		"complete":   `{"kind":"complete","sites":4}`,
-		"star":       `{"kind":"star","leaves":4}`,
-		"cayley":     `{"kind":"cayley","coordination":3,"shells":2}`,
-		"vicsek":     `{"kind":"vicsek","generation":1}`,
-		"tfractal":   `{"kind":"tfractal","generation":1}`,
-		"fibonacci":  `{"kind":"fibonacci","sites":8,"weak":0.5,"strong":1}`,
-		"harper":     `{"kind":"harper","sites":8,"lambda":2,"beta":0.618,"phase":0}`,
-	}
+	lines := kindExamples
 	for _, k := range Kinds() {
 		l, ok := lines[k]
 		require.True(t, ok, "kind %s has no decode case", k)

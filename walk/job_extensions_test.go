@@ -196,28 +196,8 @@ func TestServeEveryKindRuns(t *testing.T) {
 	want := map[string]int{"ring": 5, "triangular": 9, "complete": 4, "star": 5,
 		"cayley": 1 + 3*(2*2-1)/(3-2), "vicsek": 5, "tfractal": 4, "fibonacci": 8, "harper": 8,
 		"cubic": 8, "hypercube": 8}
-	lines := map[string]string{
-		"chain":      `{"kind":"chain","sites":5,"periodic":true}`,
-		"square":     `{"kind":"square","width":3,"height":2,"periodic":false}`,
-		"triangle":   `{"kind":"triangle","side":3}`,
-		"gasket":     `{"kind":"gasket","generation":2}`,
-		"carpet":     `{"kind":"carpet","generation":1,"variant":"corners"}`,
-		"hypercube":  `{"kind":"hypercube","dimension":3}`,
-		"graph":      `{"kind":"graph","sites":2,"bonds":[[0,1]]}`,
-		"ring":       `{"kind":"ring","sites":5}`,
-		"triangular": `{"kind":"triangular","width":3,"height":3,"periodic":true}`,
-		"honeycomb":  `{"kind":"honeycomb","width":3,"height":3}`,
-		"kagome":     `{"kind":"kagome","width":3,"height":3}`,
-		"lieb":       `{"kind":"lieb","width":3,"height":3}`,
-		"cubic":      `{"kind":"cubic","width":2,"height":2,"depth":2}`,
-		"complete":   `{"kind":"complete","sites":4}`,
-		"star":       `{"kind":"star","leaves":4}`,
-		"cayley":     `{"kind":"cayley","coordination":3,"shells":2}`,
-		"vicsek":     `{"kind":"vicsek","generation":1}`,
-		"tfractal":   `{"kind":"tfractal","generation":1}`,
-		"fibonacci":  `{"kind":"fibonacci","sites":8}`,
-		"harper":     `{"kind":"harper","sites":8}`,
-	}
+	lines := kindExamples
+
 	var req []string
 	for _, k := range Kinds() {
 		req = append(req, fmt.Sprintf(`{"id":%q,"lattice":%s,"start":{"site":0},"times":[0,1],"report":["msd","return","spread"]}`, k, lines[k]))
