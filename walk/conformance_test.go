@@ -515,3 +515,72 @@ func TestConformanceSciPy(t *testing.T) {
 		}
 	}
 }
+
+// TestConformanceStructured runs Krylov, Chebyshev and Auto against exact
+// diagonalisation on graphs with awkward spectra: the complete graph (two
+// eigenvalues, the Lanczos runs break down at once), a star (an isolated
+// pair ±√(N−1)), the Sierpinski gasket (massive degeneracy), and a chain
+// plus a disconnected heavy dimer (an extreme eigenvalue ±50 carried by two
+// sites only, which the spectral bounds must still find).
+func TestConformanceStructured(t *testing.T) {
+	if testing.Short() {
+		t.Skip("exact references on several graphs")
+	}
+	var gs []*lattice.Graph
+	var names []string
+	kn := func(n int) *lattice.Graph {
+		var b []lattice.Bond
+		for i := 0; i < n; i++ {
+			for j := i + 1; j < n; j++ {
+				b = append(b, lattice.Bond{I: i, J: j, W: 1})
+			}
+		}
+		return graph(t, n, b, nil)
+	}
+	star := func(n int) *lattice.Graph {
+		var b []lattice.Bond
+		for i := 1; i < n; i++ {
+			b = append(b, lattice.Bond{I: 0, J: i, W: 1})
+		}
+		return graph(t, n, b, nil)
+	}
+	gas, err := lattice.Gasket(5)
+	require.NoError(t, err)
+	// disconnected: chain of 200 plus a heavy dimer
+	b := chainBonds(200, false)
+	b = append(b, lattice.Bond{I: 200, J: 201, W: 50})
+	disc := graph(t, 202, b, nil)
+	gs = append(gs, kn(150), star(200), gas, disc)
+	names = append(names, "K150", "star200", "gasket5", "disc")
+	for gi, g := range gs {
+		for _, dyn := range []Dynamics{Quantum, Classical} {
+			op := g.Hamiltonian(1)
+			if dyn == Classical {
+				op = g.Laplacian(1)
+			}
+			n := g.Len()
+			times := []float64{0.01, 0.5, 3, 30, 100}
+			run := func(m Method, start int) [][]complex128 {
+				var out [][]complex128
+				_, err := Propagate(context.Background(), op, dyn, basis(n, start), times, Settings{Method: m},
+					func(_ int, _ float64, psi []complex128) error {
+						out = append(out, append([]complex128(nil), psi...))
+						return nil
+					})
+				require.NoError(t, err, "%s %v %v", names[gi], dyn, m)
+				return out
+			}
+			for _, start := range []int{0, n - 1} {
+				ref := run(Exact, start)
+				for _, m := range []Method{Krylov, Chebyshev, Auto} {
+					got := run(m, start)
+					for k := range times {
+						// The default tolerance plus the reference's rounding
+						// (common practice).
+						require.LessOrEqual(t, diffNorm(got[k], ref[k]), 1e-10+1e-11, "%s %v %v start %d t=%v", names[gi], dyn, m, start, times[k])
+					}
+				}
+			}
+		}
+	}
+}
