@@ -126,8 +126,13 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 					return nil, iv.products, err
 				}
 			}
+			// Room above only: an interval reaching below the spectrum
+			// multiplies the classical coefficients by e^{(λ_min − lo)Δt}
+			// (they must then cancel), while one ending a little above
+			// the lowest eigenvalue costs nothing (exp(−Ht) is tiny and
+			// smooth there).
 			w := iv.hi - iv.lo
-			iv.lo, iv.hi = iv.lo-0.05*w, iv.hi+0.05*w
+			iv.lo, iv.hi = math.Max(iv.lo, iv.ritzLo), iv.hi+0.05*w
 			return newChebyshev(op, classical, iv), iv.products, nil
 		}
 		if !haveIV {

@@ -79,6 +79,12 @@ func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64)
 		seg = maxSegmentClassical
 	}
 	nseg := int(math.Ceil(c.a * dt / seg))
+	if c.classical && c.b-c.a < 0 {
+		// An interval reaching below 0 scales the classical coefficients
+		// by e^{−(b−a)h}; keep that below e² per segment so they need not
+		// cancel (an operator with negative eigenvalues grows genuinely).
+		nseg = max(nseg, int(math.Ceil(-(c.b-c.a)*dt/2)))
+	}
 	nseg = max(nseg, 1)
 	h := dt / float64(nseg)
 	var prods int

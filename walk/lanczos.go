@@ -127,6 +127,9 @@ func tridiagEigen(alpha, beta []float64, k int, theta, s, e, work []float64) boo
 type interval struct {
 	lo, hi   float64
 	products int
+	// ritzLo is the lowest Ritz value less its residual, before the margin
+	// and the clipping (the classical walk uses it; see choose).
+	ritzLo float64
 }
 
 // intervalSteps is the number of Lanczos steps used for the spectral bounds.
@@ -215,6 +218,7 @@ func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 	rlo := bk * math.Abs(s[(k-1)*k+0])
 	rhi := bk * math.Abs(s[(k-1)*k+k-1])
 	lo, hi := theta[0]-rlo, theta[k-1]+rhi
+	ritzLo := lo
 	margin := 2e-3 * (hi - lo)
 	if margin == 0 {
 		margin = 1e-3 * math.Max(1, math.Abs(hi))
@@ -229,7 +233,7 @@ func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 	if !(lo <= hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) {
 		return interval{products: prods}, numerical("the spectral bounds are not finite")
 	}
-	return interval{lo: lo, hi: hi, products: prods}, nil
+	return interval{lo: lo, hi: hi, products: prods, ritzLo: ritzLo}, nil
 }
 
 // gershgorin returns the hull of the Gershgorin discs of m.

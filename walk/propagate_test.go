@@ -462,3 +462,38 @@ func TestNonFiniteIsAnError(t *testing.T) {
 		}
 	}
 }
+
+// TestClassicalLongTimes runs the classical walk to long times through the
+// CSR path (Gershgorin interval) and the generic path (Lanczos interval),
+// against exact diagonalisation; at late times p approaches the uniform
+// 1/n of a connected graph (common practice).
+func TestClassicalLongTimes(t *testing.T) {
+	g, err := lattice.Gasket(4)
+	require.NoError(t, err)
+	n := g.Len()
+	l := g.Laplacian(1)
+	times := []float64{10, 1000, 20000}
+	run := func(op Operator, m Method) [][]complex128 {
+		var out [][]complex128
+		_, err := Propagate(context.Background(), op, Classical, basis(n, 0), times, Settings{Method: m},
+			func(_ int, _ float64, psi []complex128) error {
+				out = append(out, append([]complex128(nil), psi...))
+				return nil
+			})
+		require.NoError(t, err)
+		return out
+	}
+	ref := run(l, Exact)
+	for _, op := range []Operator{l, hidden{l}} {
+		for _, m := range []Method{Chebyshev, Krylov, Auto} {
+			got := run(op, m)
+			for k := range times {
+				// The default tolerance plus rounding (common practice).
+				assert.LessOrEqual(t, diffNorm(got[k], ref[k]), 1e-10+1e-12, "%T %v t=%v", op, m, times[k])
+			}
+			for _, v := range got[2] {
+				assert.InDelta(t, 1/float64(n), real(v), 1e-10)
+			}
+		}
+	}
+}
