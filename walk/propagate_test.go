@@ -497,3 +497,35 @@ func TestClassicalLongTimes(t *testing.T) {
 		}
 	}
 }
+
+// TestStepsAllocateNothing checks that, once warmed up, a step of each
+// propagator allocates nothing (the hot loops reuse their workspace).
+func TestStepsAllocateNothing(t *testing.T) {
+	g, err := lattice.Gasket(5)
+	require.NoError(t, err)
+	n := g.Len()
+	h := g.Hamiltonian(1)
+	ctx := context.Background()
+	iv, err := spectralInterval(ctx, h)
+	require.NoError(t, err)
+	ex, _, err := newExact(ctx, h, false)
+	require.NoError(t, err)
+	props := map[string]propagator{
+		"chebyshev": newChebyshev(h, false, iv),
+		"classical": newChebyshev(g.Laplacian(1), true, interval{lo: 0, hi: 8}),
+		"krylov":    newKrylov(h, false),
+		"exact":     ex,
+	}
+	for name, p := range props {
+		psi := basis(n, 0)
+		_, _, err := p.step(ctx, psi, 2.5, 1e-10) // warm up
+		require.NoError(t, err)
+		allocs := testing.AllocsPerRun(5, func() {
+			psi[0] += 1e-3 // defeat the reuse paths
+			if _, _, err := p.step(ctx, psi, 2.5, 1e-10); err != nil {
+				t.Fatal(err)
+			}
+		})
+		assert.Equal(t, 0.0, allocs, name)
+	}
+}
