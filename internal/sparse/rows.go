@@ -34,25 +34,29 @@ func (m *CSR) rowsPattern(y, x []complex128, lo, hi int) {
 	col := m.Col
 	u := m.Unit
 	y = y[:hi-lo]
+	k := rp[0] // carried from row to row: one row-start load per row
 	for r := range y {
-		cs := col[rp[r]:rp[r+1]]
+		e := rp[r+1]
 		var sr, si float64
-		switch len(cs) {
+		switch e - k {
 		case 4:
-			x0, x1, x2, x3 := x[cs[0]], x[cs[1]], x[cs[2]], x[cs[3]]
+			c := col[k : k+4 : k+4]
+			x0, x1, x2, x3 := x[c[0]], x[c[1]], x[c[2]], x[c[3]]
 			sr = real(x0) + real(x1) + real(x2) + real(x3)
 			si = imag(x0) + imag(x1) + imag(x2) + imag(x3)
 		case 2:
-			x0, x1 := x[cs[0]], x[cs[1]]
+			c := col[k : k+2 : k+2]
+			x0, x1 := x[c[0]], x[c[1]]
 			sr = real(x0) + real(x1)
 			si = imag(x0) + imag(x1)
 		default:
-			for _, j := range cs {
+			for _, j := range col[k:e] {
 				xj := x[j]
 				sr += real(xj)
 				si += imag(xj)
 			}
 		}
+		k = e
 		y[r] = complex(sr*u, si*u)
 	}
 }
