@@ -23,9 +23,14 @@ type Operator interface {
 type Method int
 
 const (
+	// Auto chooses by size, time span and number of reported times (see
+	// the package documentation) and says why in Diagnostics.Reason.
 	Auto Method = iota
+	// Exact diagonalises H once: O(n³) time, O(n²) memory, any time.
 	Exact
+	// Krylov projects onto Lanczos spaces with a-posteriori step control.
 	Krylov
+	// Chebyshev expands the exponential in Chebyshev polynomials.
 	Chebyshev
 )
 
