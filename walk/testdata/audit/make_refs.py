@@ -451,6 +451,44 @@ add("graph-average", {"lattice": lat5, "hopping": 0.7, "start": {"site": 0}, "ti
     {"average": {"return": float(pbar[0]), "populations": L(pbar)}}, 1e-9,
     "sum_k |<j|k>|^2 |<k|s>|^2 with numpy.linalg.eigh (no degeneracies)")
 
+# infinite-time average populations with degenerate levels: sum over the
+# eigenprojections P_E of |<j|P_E|s>|^2 (levels closer than 1e-8 grouped)
+def average_pops(n, bonds, s, gamma=1.0, onsite=None):
+    H = gamma * wmatrix(n, bonds) + np.diag(onsite if onsite is not None else np.zeros(n))
+    lam, V = np.linalg.eigh(H)
+    out = np.zeros(n)
+    k = 0
+    while k < n:
+        m = k
+        while m + 1 < n and lam[m + 1] - lam[k] < 1e-8:
+            m += 1
+        Q = V[:, k:m + 1]
+        out += np.abs(Q @ Q[s, :].conj()) ** 2
+        k = m + 1
+    return out
+
+
+for lat, (pos, bonds), s in (({"kind": "chain", "sites": 8, "periodic": True}, chain(8, True), 2),
+                             ({"kind": "chain", "sites": 7, "periodic": True}, chain(7, True), 0),
+                             ({"kind": "gasket", "generation": 2}, gasket(2), 0),
+                             ({"kind": "hypercube", "dimension": 3}, hypercube(3), 0),
+                             ({"kind": "square", "width": 4, "height": 4, "periodic": True}, square(4, 4, True), 5)):
+    pb = average_pops(len(pos), bonds, s)
+    start = {"site": s}
+    if lat["kind"] == "gasket":
+        start = {"near": [0, 0]}
+        s = nearest(pos, (0, 0))
+        pb = average_pops(len(pos), bonds, s)
+        add("average-degenerate-%s" % lat["kind"],
+            {"lattice": lat, "start": start, "times": [1.0], "report": ["average"]},
+            {"average": {"return": float(pb[s])}}, 1e-9,
+            "eigenprojections of degenerate levels, numpy.linalg.eigh")
+        continue
+    add("average-degenerate-%s-%d" % (lat["kind"], len(pos)),
+        {"lattice": lat, "start": start, "times": [1.0], "report": ["average", "populations"]},
+        {"average": {"return": float(pb[s]), "populations": L(pb)}}, 1e-9,
+        "eigenprojections of degenerate levels, numpy.linalg.eigh")
+
 # 9. remove + kept
 pos, bonds = chain(8)
 keep = [0, 1, 2, 4, 5, 7]
