@@ -30,12 +30,24 @@
 // # Regime analysis
 //
 // FitRegimes analyses any positive series y(t): the smoothed local exponent
-// d ln y / d ln t (Savitzky–Golay on the log–log curve), a continuous
-// broken-line fit of ln y against ln t with 1…MaxSegments segments whose
-// breakpoints are optimised and whose number is chosen by BIC, exponent
+// d ln y / d ln t (Savitzky–Golay on the log–log curve, five points,
+// quadratic, with the window shifted away from a sharp change when that
+// fits clearly better), a continuous broken-line fit of ln y against ln t
+// with 1…MaxSegments segments whose breakpoints are optimised, exponent
 // errors from the fit covariance and 95% crossover intervals from a seeded
 // bootstrap (residual resampling, or parametric when per-point errors are
-// given). Each regime carries a label that is a statement about the MSD
+// given).
+//
+// The number of regimes is stated by a two-part criterion. First BIC, where
+// a curve given without errors is never taken as more precise than a
+// relative noise floor of 10⁻³ (the residual variance in ln y is at least
+// 10⁻⁶), so that an exact simulated curve is not split on round-off. Then
+// adjacent segments whose exponents differ by less than
+// max(0.05, 2·√(σ₁² + σ₂²)) are merged and the fit is redone with one
+// segment fewer, until no such pair remains. A pure power law is therefore
+// one regime without a crossover. A crossover interval never collapses onto
+// its estimate: a side the bootstrap leaves at zero width is widened to the
+// neighbouring sample time (the resolution of the time grid). Each regime carries a label that is a statement about the MSD
 // exponent α (see the Kind constants): super-ballistic, ballistic,
 // super-diffusive, diffusive, sub-diffusive, saturated, decreasing.
 //

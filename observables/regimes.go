@@ -71,8 +71,8 @@ type RegimeSettings struct {
 	// Seed fixes the bootstrap's random stream (PCG(Seed, 0x5e9)).
 	Seed uint64
 	// Smooth is the half-width in points of the Savitzky–Golay window of the
-	// local exponent (0 means 3: seven points) and Order its polynomial
-	// degree (0 means 2).
+	// local exponent (0 means 2: five points, placed adaptively as
+	// LocalExponent describes) and Order its polynomial degree (0 means 2).
 	Smooth, Order int
 }
 
@@ -130,10 +130,19 @@ type RegimeFit struct {
 	Saturation *Saturation
 }
 
-// rssFloor is a relative noise floor (in ln y) added to the unweighted
-// residual sum of squares so that exact or nearly exact curves do not
-// over-segment on round-off.
-const rssFloor = 1e-9
+// noiseFloor is the relative noise floor f of a series given without
+// errors: its residual variance in ln y is taken as at least f², so that
+// exact or nearly exact curves (simulations, noiseless models) do not
+// over-segment on round-off or on numerically tiny improvements of the fit.
+// 10⁻³ is a relative accuracy far below any measured curve and above the
+// accumulated rounding of a simulated one (chosen here, common practice
+// for a tolerance floor).
+const noiseFloor = 1e-3
+
+// mergeMin is the least exponent difference that keeps two adjacent
+// segments apart, whatever their errors (chosen here: half the smallest
+// distance between the Kind thresholds).
+const mergeMin = 0.05
 
 // FitRegimes analyses a positive series y(t) as a sequence of power laws.
 //
@@ -149,15 +158,27 @@ const rssFloor = 1e-9
 // coefficients and m − 1 breakpoints):
 //
 //	with errors:    BIC = χ² + 2m ln n,  χ² = Σ ((ln y − η)/σ)², σ = σ_y/y
-//	without errors: BIC = n ln(RSS/n + 10⁻¹⁸) + 2m ln n
+//	without errors: BIC = n ln(RSS/n + f²) + 2m ln n,  f = 10⁻³
 //
-// (the small constant is a relative noise floor of 10⁻⁹ in y that keeps
-// exact curves from over-segmenting on round-off).
+// where f is a relative noise floor (10⁻³ in y, i.e. on the ln y residual
+// scale): a curve given without errors is never taken to be more precise
+// than that, so an exact or nearly exact curve (a simulation) is not split
+// for improvements of the fit that lie below the floor.
 //
 // Exponent errors come from the covariance of the full (line and
 // breakpoint) least-squares problem at the optimum, s²(JᵀJ)⁻¹ with J the
 // Jacobian; s² = 1 when errors are given (they are taken as absolute) and
-// the residual variance RSS/(n − 2m) otherwise.
+// the residual variance max(RSS/(n − 2m), f²) otherwise.
+//
+// Adjacent segments of the same law are merged: after the BIC choice, while
+// two neighbouring segments have exponents α₁, α₂ with
+// |α₁ − α₂| < max(0.05, 2·√(σ₁² + σ₂²)) (σ the exponent errors), the pair
+// with the smallest difference is merged and the fit with one segment fewer
+// is taken (the better of the BIC search's fit and the current breakpoints
+// without the merged one, refined). A pure power law therefore gives one
+// regime and no crossover. Together, BIC with the floor and this merge rule
+// are the criterion for the number of regimes (RegimeFit.Criterion reads
+// "BIC+merge").
 //
 // Crossover intervals are 95% percentile bootstrap intervals (Efron &
 // Tibshirani, An Introduction to the Bootstrap (1993), ch. 13) with the
@@ -168,6 +189,11 @@ const rssFloor = 1e-9
 // the breakpoints from the original fit. The random stream is
 // PCG(Seed, 0x5e9), so a given seed gives the same result every time. With
 // Replicates < 0 the intervals are Wald intervals ψ ± 1.96 σ_ψ in ln t.
+// An interval never collapses onto its estimate: when the bootstrap (or
+// Wald) interval ends at the crossover time on one side, as it does for a
+// curve with almost no residual, that end is widened to the neighbouring
+// sample time, so the interval then states the resolution of the time grid
+// (Low < Time < High always).
 //
 // Validation: times positive, finite and strictly increasing; values
 // positive and finite; errors (nil, empty, or one per value) positive and finite;
@@ -243,7 +269,7 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 		}
 	}
 
-	res := &RegimeFit{Times: append([]float64(nil), t...), Criterion: "BIC"}
+	res := &RegimeFit{Times: append([]float64(nil), t...), Criterion: "BIC+merge"}
 	res.LocalExponent = make([]float64, n)
 	localExponent(res.LocalExponent, t, v, s.Smooth, s.Order)
 
@@ -252,27 +278,60 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 	res.Tried = maxK + 1
 	var bestPsi []float64
 	bestScore := math.Inf(1)
-	bestRSS := 0.0
 	ln := math.Log(float64(n))
 	bl.setY(y)
+	var searched [][]float64 // the BIC search's breakpoints for k = 0…
 	for k := 0; k <= maxK; k++ {
 		psi, ok := bl.search(k)
 		if !ok {
 			res.Tried = k
 			break
 		}
+		searched = append(searched, psi)
 		rss := bl.fit(psi, y)
 		m := k + 1
 		var score float64
 		if sw != nil {
 			score = rss + float64(2*m)*ln
 		} else {
-			score = float64(n)*math.Log(rss/float64(n)+rssFloor*rssFloor) + float64(2*m)*ln
+			score = float64(n)*math.Log(rss/float64(n)+noiseFloor*noiseFloor) + float64(2*m)*ln
 		}
 		res.Scores = append(res.Scores, score)
 		if score < bestScore {
-			bestScore, bestPsi, bestRSS = score, psi, rss
+			bestScore, bestPsi = score, psi
 		}
+	}
+	bestPsi = append([]float64(nil), bestPsi...)
+
+	// Merge adjacent segments of the same law (see the doc comment).
+	var beta, cov, psiSE, slopes, slopeSE []float64
+	var bestRSS float64
+	for {
+		k := len(bestPsi)
+		bestRSS = bl.fit(bestPsi, y)
+		beta = append(beta[:0], bl.beta[:k+2]...)
+		s2 := 1.0
+		if sw == nil {
+			s2 = 0
+			if dof := n - 2*(k+1); dof > 0 {
+				s2 = math.Max(bestRSS/float64(dof), noiseFloor*noiseFloor)
+			}
+		}
+		cov, psiSE = segmentCovariance(x, sw, bestPsi, beta, s2)
+		slopes, slopeSE = segmentSlopes(beta, cov, k)
+		j := mergeCandidate(slopes, slopeSE)
+		if j < 0 {
+			break
+		}
+		// Drop breakpoint j and refine the rest; keep the better of that
+		// and the search's fit with one segment fewer.
+		drop := append(append([]float64(nil), bestPsi[:j]...), bestPsi[j+1:]...)
+		bl.setY(y)
+		bl.refine(drop)
+		if alt := searched[k-1]; bl.fit(alt, y) < bl.fit(drop, y) {
+			drop = append(drop[:0], alt...)
+		}
+		bestPsi = drop
 	}
 	k := len(bestPsi)
 	m := k + 1
@@ -280,36 +339,13 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 	res.Residual = bestRSS
 	res.DoF = n - 2*m
 
-	// Coefficients and covariance at the optimum.
-	bl.fit(bestPsi, y)
-	beta := append([]float64(nil), bl.beta[:k+2]...)
-	s2 := 1.0
-	if sw == nil {
-		if res.DoF > 0 {
-			s2 = bestRSS / float64(res.DoF)
-		} else {
-			s2 = 0
-		}
-	}
-	cov, psiSE := segmentCovariance(x, sw, bestPsi, beta, s2)
-
 	// Regimes.
 	bounds := make([]float64, 0, k+2)
 	bounds = append(bounds, x[0])
 	bounds = append(bounds, bestPsi...)
 	bounds = append(bounds, x[n-1])
-	slope := beta[1]
 	for seg := range m {
-		if seg > 0 {
-			slope += beta[seg+1]
-		}
-		// Variance of b₁ + c₁ + … + c_seg.
-		var vs float64
-		for i := 1; i <= seg+1; i++ {
-			for j := 1; j <= seg+1; j++ {
-				vs += cov[i*len(beta)+j]
-			}
-		}
+		slope := slopes[seg]
 		// Intercept: η at the segment start minus slope·x.
 		x0 := bounds[seg]
 		eta := beta[0] + beta[1]*x0
@@ -322,7 +358,7 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 			From:      math.Exp(bounds[seg]),
 			To:        math.Exp(bounds[seg+1]),
 			Exponent:  slope,
-			Error:     math.Sqrt(math.Max(vs, 0)),
+			Error:     slopeSE[seg],
 			Prefactor: math.Min(math.Exp(eta-slope*x0), math.MaxFloat64),
 			Kind:      Classify(slope),
 		})
@@ -353,8 +389,62 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 			}
 		}
 	}
+	widenCollapsed(res.Crossovers, t)
 	res.Saturation = saturation(t, v, res.LocalExponent)
 	return res, nil
+}
+
+// segmentSlopes returns the exponent b₁ + c₁ + … + c_s of each of the k+1
+// segments and its standard error from the line covariance cov.
+func segmentSlopes(beta, cov []float64, k int) (slopes, se []float64) {
+	p := len(beta)
+	slope := beta[1]
+	for seg := range k + 1 {
+		if seg > 0 {
+			slope += beta[seg+1]
+		}
+		// Variance of b₁ + c₁ + … + c_seg.
+		var vs float64
+		for i := 1; i <= seg+1; i++ {
+			for j := 1; j <= seg+1; j++ {
+				vs += cov[i*p+j]
+			}
+		}
+		slopes = append(slopes, slope)
+		se = append(se, math.Sqrt(math.Max(vs, 0)))
+	}
+	return slopes, se
+}
+
+// mergeCandidate returns the breakpoint between the adjacent segments with
+// the smallest exponent difference below max(mergeMin, 2·√(σ₁² + σ₂²)), or
+// −1 when every pair is distinct.
+func mergeCandidate(slopes, se []float64) int {
+	best, bestD := -1, math.Inf(1)
+	for j := 0; j+1 < len(slopes); j++ {
+		d := math.Abs(slopes[j+1] - slopes[j])
+		thr := math.Max(mergeMin, 2*math.Hypot(se[j], se[j+1]))
+		if d < thr && d < bestD {
+			best, bestD = j, d
+		}
+	}
+	return best
+}
+
+// widenCollapsed widens an interval end that coincides with its crossover
+// time to the neighbouring sample time on that side (the grid resolution).
+func widenCollapsed(cr []Crossover, t []float64) {
+	for j := range cr {
+		c := &cr[j]
+		if c.Low >= c.Time {
+			i := sort.SearchFloat64s(t, c.Time) // first t[i] ≥ Time
+			c.Low = t[max(i-1, 0)]
+		}
+		if c.High <= c.Time {
+			i := sort.Search(len(t), func(i int) bool { return t[i] > c.Time })
+			c.High = t[min(i, len(t)-1)]
+		}
+	}
 }
 
 // saturation finds the trailing run of points whose local exponent stays
