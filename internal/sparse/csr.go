@@ -22,6 +22,8 @@ type CSR struct {
 	Imag    []float64
 	Diag    []float64
 	Workers int
+
+	grid *grid // set by DetectGrid: products skip RowPtr and Col
 }
 
 // NNZ returns the number of stored off-diagonal entries.

@@ -66,6 +66,9 @@ func (m *CSR) cheb(o op, dst, cur, prev, acc []complex128, scale, shift float64,
 // chebRows runs ChebFirst (prev == nil) or ChebNext on rows [lo, hi) and
 // returns Σ|dst[i]|² over them when norm is set.
 func (m *CSR) chebRows(dst, cur, prev, acc []complex128, scale, shift float64, coef complex128, norm bool, lo, hi int) float64 {
+	if m.grid != nil && m.Val == nil && m.Imag == nil {
+		return m.gridCheb(dst, cur, prev, acc, scale, shift, coef, norm, lo, hi)
+	}
 	var buf [chunk]complex128
 	cr, ci := real(coef), imag(coef)
 	s := scale

@@ -367,4 +367,16 @@ func TestKernelsAllocateNothing(t *testing.T) {
 		})
 		require.Zero(t, allocs, "workers=%d", w)
 	}
+	g := rectCSR(200, 200) // the matrix-free grid path
+	require.True(t, g.DetectGrid())
+	n = g.N
+	cur, prev, acc = randVec(rng, n), randVec(rng, n), randVec(rng, n)
+	for _, w := range []int{1, 2} {
+		g.Workers = w
+		allocs := testing.AllocsPerRun(20, func() {
+			g.ChebNext(prev, cur, prev, acc, 0.1, 0, 0.01)
+			_ = g.ChebNextNorm(prev, cur, prev, acc, 0.1, 0, 0.01)
+		})
+		require.Zero(t, allocs, "grid workers=%d", w)
+	}
 }

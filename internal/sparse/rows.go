@@ -10,6 +10,8 @@ package sparse
 // mulRows computes y[i−lo] = (m·x)[i] for i in [lo, hi).
 func (m *CSR) mulRows(y, x []complex128, lo, hi int) {
 	switch {
+	case m.grid != nil && m.Val == nil && m.Imag == nil:
+		m.gridRows(y, x, lo, hi)
 	case m.Imag != nil:
 		m.rowsComplex(y, x, lo, hi)
 	case m.Val != nil:
@@ -127,7 +129,9 @@ func (m *CSR) mulRowsReal(y, x []float64, lo, hi int) {
 	rp := m.RowPtr[lo : hi+1]
 	col := m.Col
 	y = y[:hi-lo]
-	if m.Val == nil {
+	if m.grid != nil && m.Val == nil {
+		m.gridRowsReal(y, x, lo, hi)
+	} else if m.Val == nil {
 		u := m.Unit
 		for r := range y {
 			cs := col[rp[r]:rp[r+1]]
