@@ -10,8 +10,9 @@ import (
 // directly and call Run, which validates what Decode cannot (indices against
 // the built lattice, memory estimates).
 //
-// A Job is one of three kinds: a walk job (Lattice, Start, Times), a series
-// job (Series) or a spectrum job (Lattice, Spectrum).
+// A Job is one of five kinds: a walk job (Lattice, Start, Times), a series
+// job (Series), a spectrum job (Lattice, Spectrum), a plan job (Lattice,
+// Start, Plan) or a measurement job (Lattice, Measurement).
 type Job struct {
 	ID string
 
@@ -47,6 +48,18 @@ type Job struct {
 	Series *SeriesSpec
 	// Spectrum, when set, makes this a spectrum job.
 	Spectrum *SpectrumSpec
+
+	// Lab-workflow extensions (job_lab.go). Units gives the couplings a
+	// physical unit, so that times (and measured lengths) are physical;
+	// Fabrication averages a positions lattice over fabricated devices.
+	Units       *UnitsSpec
+	Fabrication *FabricationSpec
+	// Plan, when set, makes this a plan job.
+	Plan *PlanSpec
+	// Measurement, when set, makes this a measurement job; Compare adds the
+	// comparison with a simulation of the same lattice.
+	Measurement *MeasurementSpec
+	Compare     bool
 }
 
 // LatticeSpec names a lattice kind and its parameters. Only the fields the
@@ -71,6 +84,13 @@ type LatticeSpec struct {
 	// Fibonacci chain couplings and Harper (Aubry–André) parameters.
 	Weak, Strong        float64
 	Lambda, Beta, Phase float64
+
+	// Positions kind (lattice.FromPositions): the coupling law, the bond
+	// cutoff distance and the on-site detuning (nil for none); the points
+	// are Positions with Dim coordinates each.
+	Law      *LawSpec
+	Cutoff   float64
+	Detuning []float64
 }
 
 // StartSpec is the initial state: the basis state on Site, or, when Near is

@@ -11,7 +11,9 @@ import (
 // topLevel lists every request field of the job format and its extensions.
 var topLevel = []string{"id", "lattice", "hopping", "start", "dynamics", "times",
 	"tolerance", "method", "report", "remove", "disorder", "fit", "window",
-	"series", "spectrum"}
+	"series", "spectrum",
+	// Lab-workflow extensions (job_lab*.go).
+	"units", "fabrication", "plan", "measurement", "compare"}
 
 // Decode reads one request line strictly: non-JSON is "malformed", a key the
 // format does not define is "unknown-field" (named with its path, e.g.
@@ -50,6 +52,10 @@ func (job *Job) decode(o *object) error {
 		return job.decodeSeriesJob(o)
 	case o.has("spectrum"):
 		return job.decodeSpectrumJob(o)
+	case o.has("plan"):
+		return job.decodePlanJob(o)
+	case o.has("measurement"):
+		return job.decodeMeasurementJob(o)
 	}
 	return job.decodeWalkJob(o)
 }
@@ -69,6 +75,9 @@ func (job *Job) decodeWalkJob(o *object) error {
 	job.Tolerance = 1e-10
 	job.Report = []string{"msd", "return"}
 	job.Fit = FitSpec{Quantity: "msd", Segments: 4}
+	if err := forbid(o, "a walk job (it belongs to a measurement job)", "compare"); err != nil {
+		return err
+	}
 
 	raw, ok := o.take("lattice")
 	if !ok {
@@ -168,7 +177,7 @@ func (job *Job) decodeWalkJob(o *object) error {
 	if job.reports("correlations") && job.Start.Second < 0 {
 		return fault.New("start.second", "is required by the \"correlations\" report: the site of the second particle")
 	}
-	return nil
+	return job.decodeLab(o)
 }
 
 // decodeCommon reads the fields shared by walk and spectrum jobs: hopping,
@@ -395,7 +404,8 @@ func (job *Job) decodeSeriesJob(o *object) error {
 	job.Report = []string{"regimes"}
 	job.Fit = FitSpec{Quantity: "series", Segments: 4}
 	if err := forbid(o, "a series job", "lattice", "start", "times", "hopping", "dynamics",
-		"tolerance", "method", "remove", "disorder", "window", "spectrum"); err != nil {
+		"tolerance", "method", "remove", "disorder", "window", "spectrum",
+		"units", "fabrication", "plan", "measurement", "compare"); err != nil {
 		return err
 	}
 	so, err := o.sub("series")
@@ -485,7 +495,7 @@ func (s *SeriesSpec) validate() error {
 func (job *Job) decodeSpectrumJob(o *object) error {
 	job.Hopping = 1
 	if err := forbid(o, "a spectrum job", "start", "times", "dynamics", "tolerance",
-		"method", "report", "fit", "window"); err != nil {
+		"method", "report", "fit", "window", "units", "fabrication", "plan", "measurement", "compare"); err != nil {
 		return err
 	}
 	raw, ok := o.take("lattice")

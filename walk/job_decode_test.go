@@ -194,6 +194,7 @@ var kindExamples = map[string]string{
 	"tfractal":   `{"kind":"tfractal","generation":1}`,
 	"fibonacci":  `{"kind":"fibonacci","sites":8,"weak":0.5,"strong":1}`,
 	"harper":     `{"kind":"harper","sites":8,"lambda":2,"beta":0.618,"phase":0}`,
+	"positions":  `{"kind":"positions","positions":[[0,0],[10,0],[20,0]],"law":{"type":"exponential","c0":1,"kappa":0.2,"d0":10},"cutoff":15}`,
 }
 
 func TestEveryKindDecodes(t *testing.T) {

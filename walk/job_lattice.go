@@ -52,6 +52,8 @@ var kinds = map[string]kindDef{
 	"hypercube": {contract: true, params: []param{req("dimension", 'i')},
 		build: func(s *LatticeSpec) (*lattice.Graph, error) { return lattice.Hypercube(s.Dimension) }},
 	"graph": {contract: true, build: buildGraph}, // parameters decoded by decodeGraph
+	// Lab extension (job_lab.go): parameters decoded by decodePositionsLattice.
+	"positions": {build: buildPositions},
 
 	"ring": {params: []param{req("sites", 'i')},
 		build: func(s *LatticeSpec) (*lattice.Graph, error) {
@@ -165,6 +167,9 @@ func decodeLattice(raw json.RawMessage) (*LatticeSpec, error) {
 	}
 	if s.Kind == "graph" {
 		return s, decodeGraph(o, s)
+	}
+	if s.Kind == "positions" {
+		return s, decodePositionsLattice(o, s)
 	}
 	names := []string{"kind"}
 	for _, p := range def.params {

@@ -2,6 +2,7 @@ package walk
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
 	"math"
 	"strings"
@@ -54,6 +55,16 @@ type Response struct {
 	DOS          *DOSResult    `json:"dos,omitzero"`
 	Ratio        *RatioResult  `json:"ratio,omitzero"`
 	BoxDimension *BoxDimResult `json:"box_dimension,omitzero"`
+
+	// Lab-workflow outputs (job_lab*.go): with "units", TimeUnit names the
+	// unit of Times (and of regimes, crossovers, fit_times) and
+	// DimensionlessTimes gives C_ref·z; Points and Comparison answer a
+	// measurement job, Plan a plan job.
+	TimeUnit           string            `json:"time_unit,omitzero"`
+	DimensionlessTimes []float64         `json:"dimensionless_times,omitzero"`
+	Points             []MeasuredPoint   `json:"points,omitzero"`
+	Comparison         []ComparisonPoint `json:"comparison,omitzero"`
+	Plan               json.RawMessage   `json:"plan,omitzero"`
 
 	Diagnostics *JobDiagnostics `json:"diagnostics,omitzero"`
 
@@ -252,7 +263,7 @@ func (r *Response) finite() string {
 	if d := r.Diagnostics; d != nil && !allFinite([]float64{d.NormDrift, d.ErrorBound, d.Seconds}) {
 		return "diagnostics"
 	}
-	return ""
+	return r.finiteLab()
 }
 
 func allFinite(v []float64) bool {

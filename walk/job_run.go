@@ -39,6 +39,12 @@ func (j *Job) Run(ctx context.Context, log io.Writer) (resp *Response, err error
 		resp, err = j.runSeries()
 	case j.Spectrum != nil:
 		resp, err = j.runSpectrum(ctx, log)
+	case j.Plan != nil:
+		resp, err = j.runPlan(ctx, log)
+	case j.Measurement != nil:
+		resp, err = j.runMeasurement(ctx, log)
+	case j.Units != nil:
+		resp, err = j.runUnits(ctx, log)
 	default:
 		resp, err = j.runWalk(ctx, log)
 	}
@@ -94,6 +100,10 @@ func (j *Job) graph() (g *lattice.Graph, kept []int, err error) {
 // realise returns realisation k of the disorder on g (g itself without
 // disorder). Realisation k draws from rand.New(rand.NewPCG(seed, k)) alone.
 func (j *Job) realise(g *lattice.Graph, k int) (*lattice.Graph, error) {
+	if j.Fabrication != nil {
+		// Lab extension: device k rebuilt from jittered positions.
+		return j.fabricate(k)
+	}
 	d := j.Disorder
 	if d == nil || (d.Onsite == 0 && d.Bond == 0) {
 		return g, nil
@@ -109,6 +119,9 @@ func (j *Job) realise(g *lattice.Graph, k int) (*lattice.Graph, error) {
 
 // realisations returns the first realisation index and the count.
 func (j *Job) realisations() (first, n int) {
+	if j.Fabrication != nil {
+		return 0, max(j.Fabrication.Realisations, 1)
+	}
 	if j.Disorder == nil {
 		return 0, 1
 	}
@@ -165,6 +178,9 @@ func (j *Job) runWalk(ctx context.Context, log io.Writer) (*Response, error) {
 	if err := j.checkTimes(); err != nil {
 		return nil, err
 	}
+	if err := j.checkLab(); err != nil {
+		return nil, err
+	}
 	if len(j.Report) == 0 {
 		j.Report = []string{"msd", "return"}
 	}
@@ -198,7 +214,7 @@ func (j *Job) runWalk(ctx context.Context, log io.Writer) (*Response, error) {
 	}
 	first, nr := j.realisations()
 	workers := 0
-	if j.Disorder != nil {
+	if j.Disorder != nil || j.Fabrication != nil {
 		// Each realisation single-threaded, realisations in parallel: the
 		// bits of realisation k do not depend on how many run alongside it.
 		workers = 1
@@ -219,7 +235,7 @@ func (j *Job) runWalk(ctx context.Context, log io.Writer) (*Response, error) {
 	resp := &Response{ID: j.ID, Sites: &n, Kept: kept, Times: append([]float64(nil), j.Times...)}
 	bonds := g.NumBonds()
 	resp.Bonds = &bonds
-	if j.Disorder != nil {
+	if j.Disorder != nil || j.Fabrication != nil {
 		resp.Realisations = nr
 	}
 	if err := j.combine(resp, traces); err != nil {

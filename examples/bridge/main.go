@@ -23,6 +23,8 @@ import (
 	"syscall"
 
 	"github.com/ampwalk/ampwalk/walk"
+	// Plan jobs (lab extension): walk/plan registers its planner with walk.
+	_ "github.com/ampwalk/ampwalk/walk/plan"
 )
 
 func main() {
