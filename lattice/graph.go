@@ -237,6 +237,7 @@ func (g *Graph) Hamiltonian(gamma float64) *sparse.CSR {
 	if g.onsite != nil {
 		m.Diag = append([]float64(nil), g.onsite...)
 	}
+	m.DetectGrid() // open square lattices and chains: matrix-free products
 	return m
 }
 
@@ -266,6 +267,7 @@ func (g *Graph) Laplacian(gamma float64) *sparse.CSR {
 		deg[i] *= gamma
 	}
 	m.Diag = deg
+	m.DetectGrid() // open square lattices and chains: matrix-free products
 	return m
 }
 
