@@ -2,7 +2,6 @@ package walk
 
 import (
 	"encoding/json"
-	"math"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
@@ -46,9 +45,9 @@ func (l *LawSpec) law() (lattice.CouplingLaw, error) {
 // UnitsSpec is the "units" extension: the lattice's couplings (bond weights
 // and on-site energies) are in Coupling ("1/cm", "1/mm", "eV" or "meV") and
 // Reference is the reference coupling C_ref in that unit. Times (and
-// measured lengths) are then in the conjugate unit (cm, mm or fs) and are
-// converted with lattice.Scale: t = C_ref·z (per length) or t = E_ref·τ/ħ
-// (energies), with weights w = C/C_ref.
+// measured lengths) are then in the conjugate unit (cm, mm or fs); the
+// response adds the dimensionless times of lattice.Scale, t = C_ref·z (per
+// length) or t = E_ref·τ/ħ (energies), in units of 1/C_ref.
 type UnitsSpec struct {
 	Coupling  string
 	Reference float64
@@ -366,16 +365,4 @@ func (j *Job) fabricate(k int) (*lattice.Graph, error) {
 		}
 	}
 	return g, nil
-}
-
-// scaleFactor is s with t = s·x for a physical time x (1 without units).
-func (j *Job) scaleFactor() float64 {
-	if j.Units == nil {
-		return 1
-	}
-	sc, err := j.Units.scale()
-	if err != nil {
-		return math.NaN()
-	}
-	return sc.Time(1)
 }

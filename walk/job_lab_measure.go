@@ -159,28 +159,28 @@ func (j *Job) runMeasurement(ctx context.Context, log io.Writer) (*Response, err
 		setRegimes(resp, red.Fit.Regimes, red.Fit.Crossovers)
 		resp.LocalExponent, resp.FitTimes = red.Fit.LocalExponent, red.Fit.Times
 	}
-	s, hop := 1.0, j.Hopping
+	f := 1.0 // engine time per length unit, as in runUnits
 	if j.Units != nil {
 		sc, err := j.Units.scale()
 		if err != nil {
 			return nil, err
 		}
-		s, hop = sc.Time(1), sc.Weight(j.Hopping)
+		f = engineFactor(sc.Unit)
 		resp.TimeUnit = sc.Unit.TimeUnit()
 		resp.DimensionlessTimes = make([]float64, len(red.Points))
 		for k, p := range red.Points {
-			resp.DimensionlessTimes[k] = s * p.Length
+			resp.DimensionlessTimes[k] = sc.Time(p.Length)
 		}
 	}
 	if !j.Compare {
 		return resp, nil
 	}
 	c := *j
-	c.Hopping, c.Dynamics, c.Units = hop, Quantum, nil
+	c.Dynamics, c.Units = Quantum, nil
 	c.Report = []string{"populations"}
 	c.Times = make([]float64, len(red.Points))
 	for k, p := range red.Points {
-		c.Times[k] = s * p.Length
+		c.Times[k] = f * p.Length
 	}
 	if err := c.checkTimes(); err != nil {
 		return nil, within("measurement", err)

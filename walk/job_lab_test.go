@@ -141,12 +141,25 @@ func TestLabPositionsTableAndDetuning(t *testing.T) {
 func TestLabUnits(t *testing.T) {
 	const c0 = 1.2 // coupling in cm⁻¹ (invented device)
 	z := []float64{0.5, 1, 2, 3}
-	lat := rowLattice(101, c0)
+	// A row with a detuned input guide: on-site energies are not scaled by
+	// the hopping, so they test that the conversion keeps them consistent.
+	det := make([]float64, 101)
+	det[50], det[51] = 0.4, -0.3
+	lat := fmt.Sprintf(`{"kind":"positions","positions":%s,"law":{"type":"exponential","c0":%s,"kappa":0.2,"d0":10},"cutoff":15,"detuning":%s}`,
+		rowPositions(101, 10), num(c0), list(det))
+	// ħ = 0.6582119569 eV·fs (CODATA 2018): 10, 20, 40 fs at meV couplings
+	// are 10⁻³·τ/ħ in the engine's 1/meV.
+	tau := []float64{10, 20, 40}
+	inv := make([]float64, len(tau))
+	for k, x := range tau {
+		inv[k] = 1e-3 * x / 0.6582119569
+	}
 	res := labServe(t,
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":%s,"units":{"coupling":"1/cm","reference":%s}}`, lat, list(z), num(c0)),
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":%s}`, lat, list(z)),
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":%s,"units":{"coupling":"1/mm","reference":0.5}}`, lat, list(z)),
-		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":[10,20,40],"units":{"coupling":"meV","reference":25}}`, lat),
+		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":%s,"units":{"coupling":"meV","reference":25}}`, lat, list(tau)),
+		fmt.Sprintf(`{"lattice":%s,"start":{"site":50},"times":%s}`, lat, list(inv)),
 	)
 	for _, r := range res {
 		labOK(t, r)
@@ -160,42 +173,49 @@ func TestLabUnits(t *testing.T) {
 	for k := range z {
 		assert.InEpsilon(t, c0*z[k], dt[k], 1e-15)
 	}
-	// Couplings in cm⁻¹ and lengths in cm already solve i dψ/dz = Cψ, so
-	// the dimensionless run (weights C/C_ref, times C_ref·z) agrees with the
-	// run in physical units.
+	// Couplings in cm⁻¹ and lengths in cm already solve i dψ/dz = Hψ.
 	a, b := labFloats(t, u["msd"]), labFloats(t, plain["msd"])
 	for k := range a {
 		assert.InEpsilon(t, b[k], a[k], 1e-9)
 	}
 	assert.Equal(t, "mm", res[2]["time_unit"])
-	// Energies: t = E_ref·τ/ħ with ħ = 0.6582119569 eV·fs (CODATA 2018).
-	dt = labFloats(t, res[3]["dimensionless_times"])
+	// Energies: t = E_ref·τ/ħ, and the walk is the one at 10⁻³·τ/ħ.
 	assert.Equal(t, "fs", res[3]["time_unit"])
-	for k, tau := range []float64{10, 20, 40} {
-		assert.InEpsilon(t, 25e-3*tau/0.6582119569, dt[k], 1e-14)
+	assert.Equal(t, tau, labFloats(t, res[3]["times"]))
+	dt = labFloats(t, res[3]["dimensionless_times"])
+	a, b = labFloats(t, res[3]["msd"]), labFloats(t, res[4]["msd"])
+	for k := range tau {
+		assert.InEpsilon(t, 25e-3*tau[k]/0.6582119569, dt[k], 1e-14)
+		assert.InEpsilon(t, b[k], a[k], 1e-9)
 	}
 }
 
 func TestLabUnitsRegimes(t *testing.T) {
-	// Regimes come back in the requested unit: fitted in dimensionless
-	// time, then divided by s = C_ref (and the prefactor multiplied by s^α).
-	const c0 = 2.0
-	line := func(units string) string {
-		return fmt.Sprintf(`{"lattice":%s,"start":{"site":100},"times":{"from":0.25,"to":5,"count":24,"spacing":"log"},"report":["msd","regimes"],"fit":{"segments":1}%s}`,
-			rowLattice(201, c0), units)
+	// Regimes come back in the requested unit: fitted in the engine's time
+	// t = f·τ (f = 10⁻³/ħ for meV, ħ = 0.6582119569 eV·fs, CODATA 2018),
+	// then divided by f, the prefactor multiplied by f^α.
+	const c0, f = 2.0, 1e-3 / 0.6582119569
+	line := func(from, to float64, units string) string {
+		return fmt.Sprintf(`{"lattice":%s,"start":{"site":100},"times":{"from":%s,"to":%s,"count":24,"spacing":"log"},"report":["msd","regimes"],"fit":{"segments":1}%s}`,
+			rowLattice(201, c0), num(from), num(to), units)
 	}
-	res := labServe(t, line(""), line(`,"units":{"coupling":"1/cm","reference":2}`))
+	res := labServe(t, line(0.25, 5, ""), line(0.25/f, 5/f, `,"units":{"coupling":"meV","reference":2}`))
 	labOK(t, res[0])
 	labOK(t, res[1])
 	a := res[0]["regimes"].([]any)[0].(map[string]any)
 	b := res[1]["regimes"].([]any)[0].(map[string]any)
-	for _, k := range []string{"from", "to", "exponent", "prefactor"} {
-		assert.InEpsilon(t, a[k].(float64), b[k].(float64), 1e-6, k)
-	}
-	// Ballistic: MSD = 2(C z)²·d² (Childs, Farhi, Gutmann 2002, from memory).
+	assert.InEpsilon(t, a["from"].(float64)/f, b["from"].(float64), 1e-9)
+	assert.InEpsilon(t, a["to"].(float64)/f, b["to"].(float64), 1e-9)
+	assert.InEpsilon(t, a["exponent"].(float64), b["exponent"].(float64), 1e-6)
+	// Ballistic: MSD = 2(Ct)²·d² (Childs, Farhi, Gutmann 2002, from memory),
+	// so in fs the prefactor is 2(C f)²·d².
 	assert.InDelta(t, 2, b["exponent"].(float64), 1e-6)
-	assert.InEpsilon(t, 2*c0*c0*100, b["prefactor"].(float64), 1e-5)
-	assert.Equal(t, labFloats(t, res[0]["fit_times"]), labFloats(t, res[1]["fit_times"]))
+	assert.InEpsilon(t, 2*c0*c0*100*f*f, b["prefactor"].(float64), 1e-5)
+	fa, fb := labFloats(t, res[0]["fit_times"]), labFloats(t, res[1]["fit_times"])
+	require.Len(t, fb, len(fa))
+	for k := range fa {
+		assert.InEpsilon(t, fa[k]/f, fb[k], 1e-12)
+	}
 }
 
 const fabLine = `{"id":"f","lattice":%s,"start":{"site":10},"times":[0.5,1,2],"report":["msd","return"],"fabrication":{"jitter":0.3,"detuning":0.05,"law":"%s","realisations":%d,"seed":%d}}`

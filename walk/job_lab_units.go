@@ -4,31 +4,35 @@ import (
 	"context"
 	"io"
 	"math"
+
+	"github.com/ampwalk/ampwalk/lattice"
 )
 
-// runUnits runs a walk job whose couplings carry a physical unit: the job
-// is rewritten in the engine's dimensionless units (weights w = C/C_ref, so
-// hopping γ/C_ref; times t = C_ref·z, or E_ref·τ/ħ for energies; the fit
-// window and the average window likewise), run, and its times and time-like
-// outputs are converted back (lattice.Scale). Regimes keep their exponents;
-// a prefactor A of y ≈ A·t^α becomes A·s^α for y ≈ A′·z^α with t = s·z.
+// runUnits runs a walk job whose couplings carry a physical unit. The
+// engine works with H in the coupling unit and the evolution variable
+// f·x, x the physical time (f = 1 for couplings per length, x a length;
+// f = 1/ħ or 10⁻³/ħ for eV or meV, x in fs): H·f·x is the same phase as
+// the dimensionless (H/C_ref)·(C_ref·f·x) of lattice.Scale, and on-site
+// energies, which hopping does not scale, stay consistent. Times, the fit
+// window and the average window are converted, the job is run, and the
+// time-like outputs are converted back. Regimes keep their exponents; a
+// prefactor A of y ≈ A·t^α becomes A·f^α for y ≈ A′·x^α with t = f·x.
 func (j *Job) runUnits(ctx context.Context, log io.Writer) (*Response, error) {
 	sc, err := j.Units.scale()
 	if err != nil {
 		return nil, err
 	}
-	s := sc.Time(1)
+	f := engineFactor(sc.Unit)
 	c := *j
 	c.Units = nil
-	c.Hopping = sc.Weight(j.Hopping)
 	c.Times = make([]float64, len(j.Times))
 	for k, t := range j.Times {
-		c.Times[k] = sc.Time(t)
+		c.Times[k] = f * t
 	}
-	c.Fit.From, c.Fit.To = j.Fit.From*s, j.Fit.To*s
+	c.Fit.From, c.Fit.To = j.Fit.From*f, j.Fit.To*f
 	if j.Window != nil {
 		w := *j.Window
-		w.To *= s
+		w.To *= f
 		c.Window = &w
 	}
 	resp, err := c.runWalk(ctx, log)
@@ -36,10 +40,25 @@ func (j *Job) runUnits(ctx context.Context, log io.Writer) (*Response, error) {
 		return nil, err
 	}
 	resp.Times = append([]float64(nil), j.Times...)
-	resp.DimensionlessTimes = c.Times
+	resp.DimensionlessTimes = make([]float64, len(j.Times))
+	for k, t := range j.Times {
+		resp.DimensionlessTimes[k] = sc.Time(t)
+	}
 	resp.TimeUnit = sc.Unit.TimeUnit()
-	toPhysical(resp, s)
+	toPhysical(resp, f)
 	return resp, nil
+}
+
+// engineFactor is f of runUnits: the engine's time per physical time unit
+// for couplings in u.
+func engineFactor(u lattice.Unit) float64 {
+	switch u {
+	case lattice.ElectronVolt:
+		return 1 / lattice.HbarEVfs
+	case lattice.MilliElectronVolt:
+		return 1e-3 / lattice.HbarEVfs
+	}
+	return 1
 }
 
 // toPhysical converts the time-like outputs of resp from dimensionless
