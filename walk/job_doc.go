@@ -61,6 +61,8 @@ package walk
 //	window     extension: {"to": T, "samples": m (default 200)} turns the
 //	           "average" report into the finite-time average (1/T)∫₀^T p dt by
 //	           the trapezoidal rule on m+1 equally spaced times
+//	units      extension: physical couplings and times (lab workflow, below)
+//	fabrication  extension: fabricated-device ensemble (lab workflow, below)
 //
 // # Lattice kinds
 //
@@ -75,7 +77,8 @@ package walk
 // complete {sites}; star {leaves}; cayley {coordination, shells}
 // (CayleyTree); vicsek {generation}; tfractal {generation}; fibonacci
 // {sites, weak (default 0.5), strong (default 1)}; harper {sites, lambda
-// (default 2), beta (default (√5−1)/2), phase (default 0)}. Ranges are the
+// (default 2), beta (default (√5−1)/2), phase (default 0)}; positions
+// {positions, law, cutoff, detuning} (lab workflow, below). Ranges are the
 // builders'; their errors name "lattice.<parameter>".
 //
 // # Report names and response fields
@@ -132,6 +135,85 @@ package walk
 // ratio → {mean, used, degenerate} (spacings below 1e-9 of the spectral
 // width are degeneracies), box_dimension → {dimension, error, smallest,
 // largest}.
+//
+// # Lab workflow extensions
+//
+// Lattice kind positions (lattice.FromPositions): {"kind": "positions",
+// "positions": [[x, y], …] (one point per site, 1 to 64 coordinates, in any
+// length unit, µm say; site i is the i-th point), "law": {"type":
+// "exponential", "c0", "kappa", "d0"} (C(d) = c0·exp(−kappa·(d − d0)),
+// kappa ≥ 0, all three required) or {"type": "table", "distance": [...],
+// "coupling": [...], "clamp": false} (log-linear interpolation of the
+// calibration pairs; distances strictly increasing, couplings > 0; outside
+// the calibrated range refused unless clamp), "cutoff": r (required, > 0:
+// every pair at distance ≤ r is bonded with C(d); place it between
+// neighbour shells), "detuning": [ε_i, …] (optional on-site energies)}.
+// Couplings and detunings carry the law's unit; MSD and spread are in the
+// positions' unit squared. Errors name "lattice.positions[k]",
+// "lattice.law.kappa", "lattice.law.distance[k]", "lattice.law" (a
+// distance outside a table's range), "lattice.cutoff", "lattice.detuning".
+//
+// units (walk and measurement jobs, quantum dynamics): {"coupling": "1/cm" |
+// "1/mm" | "eV" | "meV", "reference": C_ref > 0}. The lattice's couplings
+// and on-site energies are in that unit and times (measured lengths) in
+// the conjugate one: cm, mm or fs. The walk is the same as i dψ/dz = Hψ
+// (per length) or iħ dψ/dτ = Hψ (energies, ħ = HbarEVfs eV·fs). The
+// response echoes "times" as requested, adds "time_unit" ("cm", "mm",
+// "fs") and "dimensionless_times" t = C_ref·z or E_ref·τ/ħ
+// (lattice.Scale: time in units of 1/C_ref), and gives regimes,
+// crossovers, fit_times, fit.from/to and window.to in the requested unit
+// (prefactors for y ≈ A·x^α in that unit).
+//
+// fabrication (walk and plan jobs with a positions lattice; not with
+// disorder): {"jitter": σ (position unit), "detuning": w (coupling unit),
+// "law": "gauss" (default) | "box", "realisations": n, "seed": s}. Device k
+// is rebuilt from positions jittered by lattice.Fabrication.Fabricate with
+// the stream lattice.Realisation(seed, k) = rand.NewPCG(seed, k), so device
+// k depends on (seed, k) alone; remove is applied to each device. Outputs
+// are combined exactly as for disorder: "realisations", means and "X_err"
+// standard errors. MSDs use each device's jittered positions. Default n:
+// 16 (1 when jitter and detuning are 0; in a plan job the planner's
+// default).
+//
+// Plan jobs (walk/plan.Make; the program must import walk/plan, which
+// registers itself with RegisterPlanner; the bridge binary does): {"lattice":
+// positions lattice, "start": {"site"} or {"near"}, "plan": {"max_length":
+// z_max (required), "min_length" (0: max/50), "samples": n (required,
+// 3…10000, at least 3 per predicted regime), "precision" (target standard
+// error of each exponent, 0: 0.05), "noise" (relative MSD error of one
+// sample), "points" (simulated lengths, 0: 48, else 8…1000)},
+// "fabrication", "tolerance", "method"}. Lengths are in the reciprocal unit
+// of the couplings (the walk runs with hopping 1, time = length). The
+// response has "sites", "bonds", "diagnostics" (first device) and "plan":
+// {"grid", "msd", "msd_err", "msd_spread", "regimes": [{from, to, exponent,
+// kind, scatter, samples, predicted_error, meets}], "samples": [{length,
+// regime, kind, msd, msd_spread}], "needed", "precision", "realisations",
+// "rationale"} (walk/plan.Plan as WriteJSON writes it). Errors name
+// "plan.samples" and so on.
+//
+// Measurement jobs (observables/measure): {"lattice": the measured array,
+// "measurement": {"csv": text, "start": i (required, the input site),
+// "quantity": "msd" (default) | "spread"}, "compare": false, "units",
+// "fit": {"from", "to", "segments"}, "hopping", "remove", "tolerance",
+// "method"}. The CSV (measure.ReadCSV) has a header naming length, site,
+// intensity and optionally uncertainty, '#' comment lines, one row per
+// (length, site) with every site at every length, sites in the built
+// lattice's numbering. Any CSV error is "invalid" with field
+// "measurement.csv" and a message "measurement.csv line N: …" (N the
+// 1-based line of the text, comments included). The response has "points"
+// [{length, msd, msd_err, spread, spread_err, ipr, ipr_err}] (intensities
+// normalised per length; errors propagated to first order from the
+// uncertainties, 0 without them), the regime analysis of the quantity
+// ("regimes", "crossovers", "local_exponent", "fit_times", lengths as the
+// time; weighted by the propagated errors when all are positive; omitted
+// with fewer than 4 lengths > 0) and, with compare, "comparison" [{length,
+// overlap, distance}]: Σ_j √(p_j q_j) and ½Σ_j |p_j − q_j| against the
+// quantum walk of the same lattice from the input site at the measured
+// lengths (converted with units), with "diagnostics".
+//
+// Predicted couplings, lengths and times are model results: calibrate them
+// against measurements on the real device, and the laboratory's own laser
+// and fabrication safety rules apply.
 //
 // # Errors and limits
 //
