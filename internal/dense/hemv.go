@@ -25,7 +25,7 @@ func HemvSplit(m int, ar, ai []float64, lda int, xr, xi, yr, yi, work []float64)
 		hemvRows(0, m, m, ar, ai, lda, xr, xi, yr, yi)
 		return
 	}
-	bounds := make([]int, w+1)
+	var bounds [9]int // w ≤ 8: no allocation per call
 	total := float64(m) * float64(m+1) / 2
 	for p := 1; p < w; p++ {
 		f := total * float64(p) / float64(w)

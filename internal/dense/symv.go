@@ -25,7 +25,7 @@ func SymvUpper(m int, a []float64, lda int, x, y, work []float64) {
 		return
 	}
 	// Row r costs m−r; split the triangle into w parts of equal area.
-	bounds := make([]int, w+1)
+	var bounds [9]int // w ≤ 8: no allocation per call
 	total := float64(m) * float64(m+1) / 2
 	for p := 1; p < w; p++ {
 		// Rows [0, r) hold area m·r − r²/2 ≈ total·p/w.
