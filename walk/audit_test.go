@@ -531,3 +531,55 @@ func auditMeanSE(xs []float64) (mean, se float64) {
 	}
 	return mean, math.Sqrt(se / float64(len(xs)-1) / float64(len(xs)))
 }
+
+// TestAuditTimesAndRegimes checks that list times are echoed exactly, that
+// null means the default, that the grid forms include both ends, and the
+// regime analysis of walks with known MSD: classical line MSD = 2t (every
+// regime diffusive, exponent 1), quantum line MSD = 2t² (ballistic,
+// exponent 2), and that the fit window is respected.
+func TestAuditTimesAndRegimes(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"echo","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":[0,0.1,0.30000000000000004,0.30000000000000004,7.25]}`,
+		`{"id":"null","lattice":{"kind":"chain","sites":5},"start":{"site":2,"near":null},"hopping":null,"times":[0.30000000000000004,2.5e3]}`,
+		`{"id":"lin","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":{"from":0.1,"to":0.7,"count":7,"spacing":"linear"}}`,
+		`{"id":"log","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":{"from":0.001,"to":1000,"count":7,"spacing":"log"}}`,
+		`{"id":"cl","lattice":{"kind":"chain","sites":801},"dynamics":"classical","start":{"site":400},"times":{"from":0.01,"to":300,"count":60,"spacing":"log"},"report":["regimes"]}`,
+		`{"id":"qu","lattice":{"kind":"chain","sites":801},"start":{"site":400},"times":{"from":0.01,"to":100,"count":40,"spacing":"log"},"report":["regimes"]}`,
+		`{"id":"win","lattice":{"kind":"chain","sites":401},"start":{"site":200},"times":{"from":0.1,"to":50,"count":40,"spacing":"log"},"report":["regimes"],"fit":{"quantity":"spread","from":1,"to":30,"segments":1}}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+	}
+	assert.Equal(t, []any{0.0, 0.1, 0.30000000000000004, 0.30000000000000004, 7.25}, res[0]["times"], "times exactly as requested")
+	assert.Equal(t, []any{0.30000000000000004, 2.5e3}, res[1]["times"])
+	lin := res[2]["times"].([]any)
+	require.Len(t, lin, 7)
+	assert.Equal(t, 0.1, lin[0])
+	assert.Equal(t, 0.7, lin[6], "the grid ends exactly at to")
+	lg := res[3]["times"].([]any)
+	require.Len(t, lg, 7)
+	assert.Equal(t, 0.001, lg[0])
+	assert.Equal(t, 1000.0, lg[6])
+	for k, v := range lg {
+		assert.InEpsilon(t, math.Pow(10, float64(k-3)), v, 1e-12, "log grid")
+	}
+	for _, g := range res[4]["regimes"].([]any) {
+		m := g.(map[string]any)
+		assert.Equal(t, "diffusive", m["kind"], "MSD = 2t (classical line)")
+		assert.InDelta(t, 1, m["exponent"], 1e-4, "MSD = 2t")
+	}
+	for _, le := range res[4]["local_exponent"].([]any) {
+		assert.InDelta(t, 1, le, 1e-4, "d ln(2t)/d ln t")
+	}
+	first := res[5]["regimes"].([]any)[0].(map[string]any)
+	assert.Equal(t, "ballistic", first["kind"], "MSD = 2t² (Childs, Farhi, Gutmann 2002, from memory)")
+	assert.InDelta(t, 2, first["exponent"], 1e-3)
+	w := res[6]
+	regs := w["regimes"].([]any)
+	require.Len(t, regs, 1, "segments: 1")
+	m := regs[0].(map[string]any)
+	assert.GreaterOrEqual(t, m["from"], 1.0)
+	assert.LessOrEqual(t, m["to"], 30.0)
+	assert.InDelta(t, 2, m["exponent"], 1e-9, "spread = 2t² on the line (mean stays at the start)")
+	assert.Empty(t, w["crossovers"])
+}

@@ -383,14 +383,16 @@ pos, bonds = gasket(7)
 s = nearest(pos, (0, 0))
 tt7 = [1.0, 4.0, 10.0]
 P = sparse_quantum_pops(len(pos), bonds, 1.0, s, tt7)
-walk_case("gasket-g7-corner-expm_multiply", {"kind": "gasket", "generation": 7}, pos, bonds, s, tt7,
-          start={"near": [0, 0]}, P=P, atol=1e-6,
-          source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
+for m in ("auto", "exact", "krylov", "chebyshev"):
+    walk_case("gasket-g7-corner-expm_multiply-%s" % m, {"kind": "gasket", "generation": 7}, pos, bonds, s, tt7,
+              start={"near": [0, 0]}, P=P, atol=1e-6, method=m,
+              source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
 pos, bonds = square(40, 40)
 s = 20 + 40 * 20
 P = sparse_quantum_pops(len(pos), bonds, 1.0, s, tt7)
-walk_case("square-40-centre-expm_multiply", {"kind": "square", "width": 40, "height": 40}, pos, bonds, s, tt7,
-          P=P, atol=1e-6, source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
+for m in ("auto", "exact", "krylov", "chebyshev"):
+    walk_case("square-40-centre-expm_multiply-%s" % m, {"kind": "square", "width": 40, "height": 40}, pos, bonds,
+              s, tt7, P=P, atol=1e-6, method=m, source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
 for g in (1, 2):
     for var, f in (("cells", carpet_cells), ("corners", carpet_corners)):
         pos, bonds = f(g)
