@@ -100,3 +100,29 @@ not json
 	require.True(t, errors.As(err, &ee), "want a non-zero exit, got %v", err)
 	assert.Equal(t, 130, ee.ExitCode())
 }
+
+func TestBridgeAnswersPlanJobs(t *testing.T) {
+	// The binary links walk/plan, whose planner answers plan jobs (lab
+	// extension): a five-guide row, 10 µm apart, couplings from an
+	// exponential law (invented numbers).
+	bin := buildBridge(t)
+	cmd := exec.Command(bin)
+	cmd.Stdin = strings.NewReader(`{"id":"p","lattice":{"kind":"positions","positions":[[0,0],[10,0],[20,0],[30,0],[40,0]],"law":{"type":"exponential","c0":1,"kappa":0.2,"d0":10},"cutoff":15},"start":{"site":2},"plan":{"max_length":6,"samples":9,"points":16}}
+`)
+	var stdout, stderr bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &stdout, &stderr
+	require.NoError(t, cmd.Run(), stderr.String())
+	var m struct {
+		ID    string          `json:"id"`
+		Error json.RawMessage `json:"error"`
+		Plan  struct {
+			Grid    []float64 `json:"grid"`
+			Samples []any     `json:"samples"`
+		} `json:"plan"`
+	}
+	require.NoError(t, json.Unmarshal(stdout.Bytes(), &m), stdout.String())
+	require.Nil(t, m.Error, string(m.Error))
+	assert.Equal(t, "p", m.ID)
+	assert.Len(t, m.Plan.Grid, 16)
+	assert.Len(t, m.Plan.Samples, 9)
+}
