@@ -22,6 +22,10 @@ func FuzzDecode(f *testing.F) {
 		`{"lattice":{"kind":"chain","sites":1e400},"start":{"site":0},"times":[1]}`,
 		`{"lattice":{"kind":"square","width":3,"height":3},"start":{"site":4,"second":5},"times":[1],"disorder":{"onsite":1,"realisations":3,"seed":7},"report":["correlations"]}`,
 		`{"a":`, `[]`, `null`, `"x"`, `{}`, `{"id":null}`, "\xff\xfe",
+		// Lab workflow extensions (job_lab*.go).
+		`{"lattice":{"kind":"positions","positions":[[0,0],[10,0],[20,0]],"law":{"type":"table","distance":[5,10,20],"coupling":[2,1,0.3],"clamp":true},"cutoff":15,"detuning":[0,0.1,0]},"start":{"site":1},"times":[1,2],"units":{"coupling":"meV","reference":20},"fabrication":{"jitter":0.2,"detuning":0.01,"law":"box","realisations":2,"seed":3}}`,
+		`{"lattice":{"kind":"positions","positions":[[0],[1],[2]],"law":{"type":"exponential","c0":1,"kappa":1,"d0":1},"cutoff":1.5},"start":{"site":1},"plan":{"max_length":5,"samples":6,"points":8}}`,
+		`{"lattice":{"kind":"chain","sites":3},"measurement":{"csv":"length,site,intensity\n1,0,1\n1,1,2\n1,2,1\n","start":1,"quantity":"spread"},"compare":true,"units":{"coupling":"1/cm","reference":1}}`,
 	} {
 		f.Add([]byte(s))
 	}
@@ -58,6 +62,8 @@ func FuzzRun(f *testing.F) {
 		`{"lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-2],[1,2]],"onsite":[1,0,-1]},"remove":[2],"start":{"site":0},"dynamics":"classical","times":{"from":0.1,"to":5,"count":8,"spacing":"log"},"report":["regimes","average"],"window":{"to":5,"samples":10}}`,
 		`{"lattice":{"kind":"ring","sites":6},"spectrum":{"eigenvalues":true,"dos":{"bins":5,"method":"exact"},"ratio":true,"box_dimension":true}}`,
 		`{"series":{"times":[1,2,3,4,5],"values":[1,4,9,16,25]}}`,
+		`{"lattice":{"kind":"positions","positions":[[0,0],[10,0],[20,0],[30,0]],"law":{"type":"exponential","c0":1,"kappa":0.2,"d0":10},"cutoff":15,"detuning":[0,0.1,0,0]},"start":{"site":1},"times":[0.5,1,2,3,4],"report":["msd","regimes"],"units":{"coupling":"1/mm","reference":0.5},"fabrication":{"jitter":0.2,"realisations":2,"seed":3}}`,
+		`{"lattice":{"kind":"chain","sites":3},"measurement":{"csv":"length,site,intensity,uncertainty\n0,0,0,0\n0,1,1,0.1\n0,2,0,0\n1,0,1,0.1\n1,1,2,0.1\n1,2,1,0.1\n","start":1},"compare":true}`,
 	} {
 		f.Add([]byte(s))
 	}
@@ -69,6 +75,7 @@ func FuzzRun(f *testing.F) {
 		// Keep the jobs small and short.
 		if len(j.Times) > 20 || (len(j.Times) > 0 && j.Times[len(j.Times)-1] > 50) ||
 			(j.Disorder != nil && j.Disorder.Realisations > 3) ||
+			(j.Fabrication != nil && j.Fabrication.Realisations > 3) ||
 			(j.Window != nil && (j.Window.Samples > 50 || j.Window.To > 50)) ||
 			math.Abs(j.Hopping) > 10 {
 			return
