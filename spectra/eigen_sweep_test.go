@@ -34,7 +34,7 @@ func eigCheckLarge(a []float64, n int, w, v []float64) (res, orth float64) {
 // SymEigen: graph adjacencies with huge degeneracies (star K_{1,m}:
 // ±√m and 0 with multiplicity m−1; complete K_n: n−1 and −1 with
 // multiplicity n−1 — common practice), sparse random graphs with integer
-// weights, and low-rank-plus-identity matrices.
+// weights, low-rank-plus-identity matrices and dense random matrices.
 func TestSymEigenSweep(t *testing.T) {
 	rnd := rand.New(rand.NewPCG(2026, 12))
 	sizes := []int{34, 97, 160, 333}
@@ -42,7 +42,7 @@ func TestSymEigenSweep(t *testing.T) {
 		sizes = append(sizes, 1000)
 	}
 	for _, n := range sizes {
-		kinds := []string{"star", "complete", "sparse", "lowrank"}
+		kinds := []string{"star", "complete", "sparse", "lowrank", "dense"}
 		for _, kind := range kinds {
 			a := make([]float64, n*n)
 			var want []float64
@@ -78,6 +78,8 @@ func TestSymEigenSweep(t *testing.T) {
 						a[j*n+i] += w
 					}
 				}
+			case "dense": // little deflation: the merges' products span many column blocks
+				a = eigRandSym(n, uint64(n))
 			case "lowrank":
 				for r := 0; r < 3; r++ {
 					u := make([]float64, n)

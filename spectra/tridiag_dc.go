@@ -13,6 +13,10 @@ import (
 // Dsteqr) instead of being split further.
 const dcLeaf = 32
 
+// dcCols is the number of columns of the merge's eigenvector matrix S formed
+// and multiplied at a time.
+const dcCols = 512
+
 // tridiagEigen computes all eigenvalues (ascending, into d) and eigenvectors
 // of the symmetric tridiagonal matrix with diagonal d[:n] and off-diagonal
 // e[:n−1] (e is destroyed). z (row-major, leading dimension ldz ≥ n) receives
@@ -64,7 +68,7 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 	}
 	ws := &dcWork{
 		qg: make([]float64, n*n),
-		s:  make([]float64, n*n),
+		s:  make([]float64, n*min(n, dcCols)),
 	}
 	ok := ws.solve(n, d, e, z, ldz)
 	for i := range d[:n] {
@@ -74,7 +78,8 @@ func tridiagEigen(n int, d, e, z []float64, ldz int) bool {
 }
 
 type dcWork struct {
-	qg, s []float64 // gathered columns of Q (n²), the secular eigenvectors S (k² ≤ n²)
+	qg []float64 // gathered columns of Q (n²)
+	s  []float64 // a k×dcCols slice of the secular eigenvectors S
 }
 
 func (ws *dcWork) solve(n int, d, e, q []float64, ldq int) bool {
@@ -262,20 +267,6 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 			pos[i], c3 = c3, c3+1
 		}
 	}
-	// S (k×k): column j is the normalised vector ẑ_i/δ_i(λ_j), row pos[i].
-	s := ws.s[:k*k]
-	for j := 0; j < k; j++ {
-		nrm := 0.0
-		for i := 0; i < k; i++ {
-			v := zh[i] / delta(dl, i, org[j], tau[j])
-			s[pos[i]*k+j] = v
-			nrm += v * v
-		}
-		nrm = 1 / math.Sqrt(nrm)
-		for i := 0; i < k; i++ {
-			s[i*k+j] *= nrm
-		}
-	}
 	// Gather, in ws.qg: Q[0:m, types 1–2] (m×n12), Q[m:n, types 2–3]
 	// ((n−m)×n23) and the deflated columns (n×nd); together at most n².
 	n12, n23, nd := n1+n2, k-n1, len(defl)
@@ -304,20 +295,37 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 			g[t] = row[j]
 		}
 	}
-	// Q_new[:, 0:k] = Q[:, keep]·S, written into the first k columns of q.
-	if k > 0 {
+	// Q_new[:, 0:k] = Q[:, keep]·S, written into the first k columns of q,
+	// dcCols columns at a time: S[:, j0:j1] (column j the normalised vector
+	// ẑ_i/δ_i(λ_j), row pos[i]) is formed just before its product, so only a
+	// k×dcCols slice of S is ever held.
+	for j0 := 0; j0 < k; j0 += dcCols {
+		jb := min(dcCols, k-j0)
+		sb := ws.s[:k*jb]
+		for j := j0; j < j0+jb; j++ {
+			nrm := 0.0
+			for i := 0; i < k; i++ {
+				v := zh[i] / delta(dl, i, org[j], tau[j])
+				sb[pos[i]*jb+j-j0] = v
+				nrm += v * v
+			}
+			nrm = 1 / math.Sqrt(nrm)
+			for i := 0; i < k; i++ {
+				sb[i*jb+j-j0] *= nrm
+			}
+		}
 		if n12 > 0 {
-			dense.Gemm(false, false, m, k, n12, 1, gt, n12, s, k, 0, q, ldq)
+			dense.Gemm(false, false, m, jb, n12, 1, gt, n12, sb, jb, 0, q[j0:], ldq)
 		} else {
 			for i := 0; i < m; i++ {
-				clear(q[i*ldq : i*ldq+k])
+				clear(q[i*ldq+j0 : i*ldq+j0+jb])
 			}
 		}
 		if n23 > 0 {
-			dense.Gemm(false, false, n-m, k, n23, 1, gb, n23, s[n1*k:], k, 0, q[m*ldq:], ldq)
+			dense.Gemm(false, false, n-m, jb, n23, 1, gb, n23, sb[n1*jb:], jb, 0, q[m*ldq+j0:], ldq)
 		} else {
 			for i := m; i < n; i++ {
-				clear(q[i*ldq : i*ldq+k])
+				clear(q[i*ldq+j0 : i*ldq+j0+jb])
 			}
 		}
 	}
