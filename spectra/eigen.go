@@ -28,7 +28,7 @@ const hermTol = 1e-10
 // 172 (1995)) and the blocked back-transformation Q·Z; without vectors,
 // gonum's root-free QL/QR (Dsterf) on T. Cost ≈ 4n³/3 flops for values and
 // about 4n³–5n³ more for vectors, mostly in parallel matrix products; memory
-// about 3.2n² float64 with vectors (a, the result and the divide-and-conquer
+// about 3n² + 512n float64 with vectors (a, the result and the divide-and-conquer
 // workspace), n² + O(n) without.
 //
 // Errors (*fault.Error, field "matrix"): n < 1, len(a) ≠ n², NaN or Inf
@@ -78,7 +78,7 @@ func SymEigen(a []float64, n int, vectors bool) (values, vecs []float64, err err
 // no 2n×2n real embedding, which would double every eigenvalue. T is solved
 // as in SymEigen (divide and conquer, or Dsterf for values only) and the
 // real eigenvectors Z of T are back-transformed to Q·Z in blocks. Cost about
-// four times SymEigen's; memory about 7.2n² float64 with vectors.
+// four times SymEigen's; memory about 7n² + 512n float64 with vectors.
 //
 // Errors (*fault.Error, field "matrix"): n < 1, len(a) ≠ n², NaN or Inf
 // entries, a non-Hermitian input (|a_ij − conj(a_ji)| > 1e-10·max|a|, or a
