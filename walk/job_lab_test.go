@@ -320,7 +320,7 @@ func TestLabPlanJob(t *testing.T) {
 
 	res := labServe(t,
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":7},"plan":{"max_length":12,"samples":2}}`, lat),
-		fmt.Sprintf(`{"lattice":{"kind":"chain","sites":5},"start":{"site":2},"plan":{"max_length":12,"samples":6}}`),
+		`{"lattice":{"kind":"chain","sites":5},"start":{"site":2},"plan":{"max_length":12,"samples":6}}`,
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":7},"plan":{"max_length":12,"samples":6},"times":[1]}`, lat),
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":70},"plan":{"max_length":12,"samples":6}}`, lat),
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":7},"plan":{"samples":6}}`, lat),
@@ -496,4 +496,69 @@ func TestLabDecodeErrors(t *testing.T) {
 		assert.Equal(t, c.code, code, "case %d: %v", k, res[k])
 		assert.Equal(t, c.field, field, "case %d: %s", k, msg)
 	}
+}
+
+func TestLabDefaults(t *testing.T) {
+	lat := rowLattice(5, 1)
+	j, err := walk.Decode([]byte(`{"lattice":` + lat + `,"start":{"site":0},"times":[1],"fabrication":{"jitter":0.1}}`))
+	require.NoError(t, err)
+	// Documented defaults (job_doc.go): law gauss, 16 devices, seed 0.
+	assert.Equal(t, &walk.FabricationSpec{Jitter: 0.1, Law: "gauss", Realisations: 16}, j.Fabrication)
+	assert.Equal(t, "positions", j.Lattice.Kind)
+	assert.Equal(t, 2, j.Lattice.Dim)
+	assert.Equal(t, &walk.LawSpec{Type: "exponential", C0: 1, Kappa: 0.2, D0: 10}, j.Lattice.Law)
+
+	j, err = walk.Decode([]byte(`{"lattice":` + lat + `,"start":{"site":0},"times":[1],"fabrication":{"seed":4}}`))
+	require.NoError(t, err)
+	assert.Equal(t, 1, j.Fabrication.Realisations) // nothing to average
+
+	j, err = walk.Decode([]byte(`{"lattice":` + lat + `,"start":{"site":0},"plan":{"max_length":2,"samples":3},"fabrication":{"jitter":0.1}}`))
+	require.NoError(t, err)
+	assert.Equal(t, 0, j.Fabrication.Realisations) // the planner's default
+	assert.Equal(t, &walk.PlanSpec{MaxLength: 2, Samples: 3}, j.Plan)
+
+	j, err = walk.Decode([]byte(`{"lattice":` + lat + `,"measurement":{"csv":"x","start":0},"units":{"coupling":"eV","reference":0.1}}`))
+	require.NoError(t, err)
+	assert.Equal(t, &walk.MeasurementSpec{CSV: "x", Start: 0, Quantity: "msd"}, j.Measurement)
+	assert.Equal(t, &walk.UnitsSpec{Coupling: "eV", Reference: 0.1}, j.Units)
+	assert.False(t, j.Compare)
+	assert.Equal(t, 4, j.Fit.Segments)
+}
+
+func TestLabCombinations(t *testing.T) {
+	lat := rowLattice(21, 1)
+	res := labServe(t,
+		// Fabrication with remove: each device loses the same sites.
+		fmt.Sprintf(`{"lattice":%s,"remove":[0,20],"start":{"site":9},"times":[1,2],"fabrication":{"jitter":0.2,"realisations":3,"seed":1}}`, lat),
+		// Fabrication with units and the ensemble regime analysis.
+		fmt.Sprintf(`{"lattice":%s,"start":{"site":10},"times":{"from":0.2,"to":3,"count":12,"spacing":"log"},"report":["msd","regimes"],"fabrication":{"jitter":0.2,"realisations":3,"seed":1},"units":{"coupling":"1/cm","reference":1}}`, lat),
+		// Units with a windowed average: the window comes back in fs.
+		fmt.Sprintf(`{"lattice":%s,"start":{"site":10},"times":[5,10],"report":["return","average"],"window":{"to":10,"samples":20},"units":{"coupling":"meV","reference":30}}`, lat),
+		// A measurement on a thinned lattice: sites in the new numbering.
+		`{"lattice":{"kind":"chain","sites":5},"remove":[0,4],"measurement":{"csv":"length,site,intensity\n1,0,1\n1,1,2\n1,2,1\n","start":1}}`,
+	)
+	for _, r := range res {
+		labOK(t, r)
+	}
+	assert.Equal(t, 19.0, res[0]["sites"])
+	assert.Len(t, res[0]["kept"], 19)
+	assert.Equal(t, 3.0, res[0]["realisations"])
+	assert.Contains(t, res[1], "msd_err")
+	assert.Contains(t, res[1], "local_exponent_err")
+	assert.Equal(t, 10.0, res[2]["average"].(map[string]any)["window"])
+	assert.Equal(t, []any{1.0, 2.0, 3.0}, res[3]["kept"])
+	pt := res[3]["points"].([]any)[0].(map[string]any)
+	// Intensities 1, 2, 1 at x = 1, 2, 3 about the start x = 2: MSD 1/2.
+	assert.InDelta(t, 0.5, pt["msd"].(float64), 1e-15)
+}
+
+func TestLabGoCallerChecks(t *testing.T) {
+	// A Job filled in Go (no Decode) still refuses fabrication on a lattice
+	// that is not built from positions.
+	j := &walk.Job{Lattice: &walk.LatticeSpec{Kind: "chain", Sites: 5}, Start: &walk.StartSpec{Site: 2, Second: -1},
+		Times: []float64{1}, Fabrication: &walk.FabricationSpec{Jitter: 0.1, Realisations: 2}}
+	_, err := j.Run(context.Background(), nil)
+	require.Error(t, err)
+	assert.Equal(t, "invalid", walk.ErrorCode(err))
+	assert.Contains(t, err.Error(), "fabrication")
 }
