@@ -586,5 +586,20 @@ for g in (3, 5):
         {"ratio": {"mean": float(r.mean()), "used": len(r), "degenerate": int((s <= thr).sum())}}, 1e-9,
         "numpy.linalg.eigvalsh; contract ratio definition, degeneracies left out and counted")
 
+# 11. site and bond counts of every contract kind (independent builders above)
+for lat, (pos, bonds) in (
+        [({"kind": "chain", "sites": n, "periodic": per}, chain(n, per)) for n in (1, 2, 3, 10) for per in (False, True)] +
+        [({"kind": "square", "width": w, "height": h, "periodic": per}, square(w, h, per))
+         for w, h in ((1, 1), (1, 4), (3, 3), (5, 2), (7, 6)) for per in (False, True)] +
+        [({"kind": "triangle", "side": L}, triangle(L)) for L in (1, 2, 6, 10)] +
+        [({"kind": "gasket", "generation": g}, gasket(g)) for g in range(0, 8)] +
+        [({"kind": "carpet", "generation": g, "variant": v}, f(g)) for g in (0, 1, 2, 3)
+         for v, f in (("cells", carpet_cells), ("corners", carpet_corners))] +
+        [({"kind": "hypercube", "dimension": d}, hypercube(d)) for d in (1, 2, 6, 10)]):
+    name = "count-" + "-".join("%s" % v for v in lat.values())
+    add(name, {"lattice": lat, "start": {"site": 0}, "times": [0.0]},
+        {"sites": len(pos), "bonds": len(bonds), "msd": [0.0], "return": [1.0]}, 0,
+        "contract site/bond counts; builders in make_refs.py")
+
 json.dump(dict(generator="make_refs.py", numpy=np.__version__, scipy=scipy.__version__, cases=cases),
           sys.stdout, indent=None, separators=(",", ":"))
