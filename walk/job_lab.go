@@ -2,6 +2,7 @@ package walk
 
 import (
 	"encoding/json"
+	"strings"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
@@ -354,7 +355,7 @@ func (j *Job) fabricate(k int) (*lattice.Graph, error) {
 		if !ok {
 			return nil, err
 		}
-		if len(fe.Field) >= 11 && fe.Field[:11] == "fabrication" {
+		if strings.HasPrefix(fe.Field, "fabrication") {
 			return nil, fe
 		}
 		return nil, fault.New("fabrication", "realisation %d cannot be built: %s %s", k, fe.Field, fe.Msg)

@@ -192,6 +192,18 @@ func (j *Job) runPlan(ctx context.Context, log io.Writer) (*Response, error) {
 	if j.Tolerance == 0 {
 		j.Tolerance = 1e-10
 	}
+	// The memory check of a walk job with the plan's grid (48 lengths by
+	// default) and its devices.
+	c := *j
+	c.Times, c.Report = make([]float64, max(j.Plan.Points, 48)), []string{"msd"}
+	if f := j.Fabrication; f != nil && f.Realisations == 0 {
+		cf := *f
+		cf.Realisations = 16 // the planner's default
+		c.Fabrication = &cf
+	}
+	if err := c.checkSize(g); err != nil {
+		return nil, err
+	}
 	in := PlanInput{Positions: j.Lattice.Positions, Dim: j.Lattice.Dim, Law: law, Cutoff: j.Lattice.Cutoff,
 		Detuning: j.Lattice.Detuning, Start: s0, Plan: *j.Plan,
 		Settings: Settings{Method: j.Method, Tolerance: j.Tolerance}}
