@@ -213,6 +213,11 @@ func TestAuditErrors(t *testing.T) {
 		{`not json`, "", "malformed", ""},
 		{`{"id":"t1","lattice":{"kind":"chain"`, "", "malformed", ""},
 		{`[1,2]`, "", "malformed", ""},
+		{`null`, "", "malformed", ""},
+		{`"str"`, "", "malformed", ""},
+		{`123`, "", "malformed", ""},
+		{`{"id":"tr",` + ch + `,` + ok + `} x`, "", "malformed", ""},
+		{`{}`, "", "invalid", "lattice"},
 		{`{"id":"nan",` + ch + `,` + `"start":{"site":2},"times":[NaN]}`, "", "malformed", ""},
 		{`{"id":"inf",` + ch + `,` + ok + `,"hopping":Infinity}`, "", "malformed", ""},
 		{`{"id":"e1",` + ch + `,` + ok + `,"hoping":1}`, "e1", "unknown-field", "hoping"},
@@ -289,6 +294,12 @@ func TestAuditTransport(t *testing.T) {
 	for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
 		assert.True(t, strings.HasPrefix(l, "{") && strings.HasSuffix(l, "}"), "stdout holds JSON objects only: %q", l)
 	}
+
+	// Leading/trailing blanks and a non-ASCII id are fine; the id comes back
+	// unchanged.
+	res = auditLines(t, " \t"+`{"id":"\u00e9\ud83d\ude00 x","lattice":{"kind":"chain","sites":3},"start":{"site":0},"times":[1]}`+" \t")
+	assert.Equal(t, "é😀 x", res[0]["id"])
+	assert.Nil(t, res[0]["error"])
 
 	// A long line (a 20000-bond graph) is read whole.
 	var b strings.Builder
