@@ -23,15 +23,16 @@ var topLevel = []string{"id", "lattice", "hopping", "start", "dynamics", "times"
 // it even when err is non-nil, so the error line can echo it.
 func Decode(line []byte) (*Job, error) {
 	job := &Job{}
-	line = bytes.TrimSpace(line)
+	line = bytes.TrimSpace(stripBOM(line))
 	if !json.Valid(line) {
 		return job, &decodeError{code: codeMalformed, msg: "the line is not valid JSON"}
 	}
 	o, err := parseObject("", line)
 	if err != nil {
-		if _, ok := err.(*fault.Error); ok {
+		if fe, ok := err.(*fault.Error); ok && fe.Field == "" {
 			return job, &decodeError{code: codeMalformed, msg: "a request must be a JSON object; got " + describe(line)}
 		}
+		job.ID = idDespite(line, err) // a repeated key is "invalid", naming the key
 		return job, err
 	}
 	// The id first, so that every later error can echo it.
@@ -166,6 +167,9 @@ func (job *Job) decodeWalkJob(o *object) error {
 	if job.Dynamics == Classical {
 		if job.Hopping < 0 {
 			return fault.Range("hopping", "non-negative for classical dynamics (it is a rate)", job.Hopping)
+		}
+		if err := job.checkClassicalBonds(); err != nil {
+			return err
 		}
 		if job.reports("correlations") {
 			return fault.New("report", "\"correlations\" needs quantum dynamics")

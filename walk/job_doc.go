@@ -25,14 +25,32 @@ package walk
 // of the wrong type or out of range are "invalid" with the path
 // ("lattice.generation", "times[3]", "start.near[1]", "lattice.bonds[2]").
 // Integer fields accept JSON numbers only when integral (3, 3.0, 3e0). A key
-// given twice in one object is "invalid". null means "the default". A line
-// that is not JSON, or not a JSON object, is "malformed".
+// given twice in one object is "invalid", naming the key's path (the id is
+// echoed unless the id itself repeats). null means "the default". A line
+// that is not JSON, or not a JSON object, is "malformed". A UTF-8 byte order
+// mark at the start of a line is ignored.
+//
+// Lattice sizes: a size parameter (sites, width, height, depth, side,
+// generation, dimension, leaves, shells) whose closed-form site count
+// exceeds lattice.MaxSites, that goes beyond the builder's own cap (gasket
+// generation 16, carpet 9, vicsek 12, tfractal 17, hypercube dimension 26,
+// triangle side 32768), or whose graph alone (lattice.EstimateBytes of the
+// closed-form counts) exceeds the memory limit is "too-large", refused
+// before anything is built, with the estimate in bytes in the message.
+// Negative, zero (where the builder needs ≥ 1) or non-integral values are
+// "invalid". The memory check of a walk job counts, with method "auto", the
+// Krylov basis Auto may build; when only Chebyshev's few vectors fit, the
+// job runs with "chebyshev" (diagnostics.method says so).
 //
 // # Request fields (walk jobs)
 //
 //	id         string, default ""
 //	lattice    required; {"kind": …, parameters} (kinds below)
-//	hopping    γ, finite, default 1 (classical: ≥ 0, it is a rate)
+//	hopping    γ, finite, default 1 (classical: ≥ 0, it is a rate; listed
+//	           graph bond weights are rates too: a negative one is
+//	           "invalid", "lattice.bonds[k]"; 0 is accepted and carries no
+//	           transfer. Graph onsite energies do not enter the classical
+//	           generator −L, L = D − W)
 //	start      required; {"site": i} or {"near": [x, y, …]} (nearest site,
 //	           ties to the lowest index); extension: "second": j and
 //	           "statistics": "bosons" (default) | "fermions" |
@@ -96,7 +114,14 @@ package walk
 //	               "crossovers" [{time, low, high}] (95% intervals),
 //	               "local_exponent" (smoothed d ln y/d ln t) and extension
 //	               "fit_times" (the times it is given at: the reported times
-//	               t > 0 with y > 0 inside the fit window). Kinds: decreasing,
+//	               t > 0 with y > 0 inside the fit window). The number of
+//	               regimes: BIC with a relative noise floor of 10⁻³, then
+//	               neighbours whose exponents differ by less than
+//	               max(0.05, 2·combined error) merged (observables.FitRegimes),
+//	               so a pure power law is one regime; crossover intervals are
+//	               never of zero width. Fewer than 4 usable times: "invalid",
+//	               field "times" (or "fit" when the window holds too few).
+//	               Kinds: decreasing,
 //	               saturated, sub-diffusive, diffusive, super-diffusive,
 //	               ballistic, super-ballistic (observables.Classify).
 //	average        "average": {"return": p̄_start} plus "populations" when

@@ -184,7 +184,7 @@ func decodeLattice(raw json.RawMessage) (*LatticeSpec, error) {
 		}
 		switch p.typ {
 		case 'i':
-			err = o.int(p.name, s.intField(p.name), math.MinInt32, math.MaxInt32)
+			err = o.latticeInt(p.name, s.intField(p.name))
 		case 'b':
 			err = o.bool(p.name, &s.Periodic)
 		case 'f':
@@ -210,7 +210,7 @@ func decodeGraph(o *object, s *LatticeSpec) error {
 	if !o.has("sites") {
 		return o.required("sites", "the number of sites")
 	}
-	if err := o.int("sites", &s.Sites, 1, lattice.MaxSites); err != nil {
+	if err := o.graphSites(&s.Sites); err != nil {
 		return err
 	}
 	n := s.Sites
@@ -300,6 +300,9 @@ func (s *LatticeSpec) Build() (g *lattice.Graph, err error) {
 	def, ok := kinds[s.Kind]
 	if !ok {
 		return nil, fault.New("lattice.kind", "must be one of %s; got %q", strings.Join(Kinds(), ", "), s.Kind)
+	}
+	if err := s.checkFormulaSize(); err != nil {
+		return nil, err
 	}
 	g, err = def.build(s)
 	if err != nil {

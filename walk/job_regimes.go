@@ -21,12 +21,24 @@ func fitPoints(times, y, yerr []float64) (t, v, e []float64) {
 }
 
 // enoughPoints refuses a fit with fewer than 4 usable points (the least
-// FitRegimes takes for one segment).
-func enoughPoints(t []float64) error {
+// FitRegimes takes for one segment): field "times" when fewer than 4 times
+// t > 0 were asked for, "report" when the fitted quantity vanishes at some
+// of them (nothing moves), and "fit" (or "times") when the fit window holds
+// fewer than 4 of the usable points.
+func (j *Job) enoughPoints(t []float64) error {
 	if len(t) < 4 {
+		pos := 0
+		for _, x := range j.Times {
+			if x > 0 {
+				pos++
+			}
+		}
+		if pos < 4 {
+			return fault.New("times", "must hold at least 4 times t > 0 for the \"regimes\" report; got %d", pos)
+		}
 		return fault.New("report", "\"regimes\" needs the fitted quantity positive at 4 or more reported times t > 0; got %d such times", len(t))
 	}
-	return nil
+	return j.checkFitWindow(t)
 }
 
 func (j *Job) regimeSettings(replicates int) observables.RegimeSettings {
@@ -44,7 +56,11 @@ func fitError(err error, series bool) error {
 	switch {
 	case series && (c.Field == "times" || c.Field == "values" || c.Field == "errors"):
 		c.Field = "series." + c.Field
-	case !series && (c.Field == "times" || c.Field == "values" || c.Field == "errors"):
+	case !series && c.Field == "times":
+		// The fit window (checked first by enoughPoints): a user input.
+		c.Kind, c.Field = fault.Invalid, "fit"
+		c.Msg = "the window holds too few usable times for the regime analysis: " + c.Msg
+	case !series && (c.Field == "values" || c.Field == "errors"):
 		c.Kind, c.Field = fault.Numerical, "fit"
 	case c.Field == "fit.min_points":
 		c.Field = "fit"
@@ -73,7 +89,7 @@ func (j *Job) regimes(resp *Response, times, y, yerr []float64) error {
 	t, v, e := fitPoints(times, y, yerr)
 	if series {
 		t, v, e = times, y, yerr
-	} else if err := enoughPoints(t); err != nil {
+	} else if err := j.enoughPoints(t); err != nil {
 		return err
 	}
 	fit, err := observables.FitRegimes(t, v, e, j.regimeSettings(0))
@@ -94,7 +110,7 @@ func (j *Job) ensembleRegimes(resp *Response, curves [][]float64) error {
 	var les [][]float64
 	for r, c := range curves {
 		t, v, _ := fitPoints(j.Times, c, nil)
-		if err := enoughPoints(t); err != nil {
+		if err := j.enoughPoints(t); err != nil {
 			return err
 		}
 		fit, err := observables.FitRegimes(t, v, nil, j.regimeSettings(-1))

@@ -85,10 +85,8 @@ func (j *Job) graph() (g *lattice.Graph, kept []int, err error) {
 		return nil, nil, err
 	}
 	if j.Remove != nil {
-		for k, i := range j.Remove {
-			if i < 0 || i >= g.Len() {
-				return nil, nil, fault.New(index("remove", k), "must be a site index between 0 and %d; got %d", g.Len()-1, i)
-			}
+		if err := checkRemove(j.Remove, g.Len()); err != nil {
+			return nil, nil, err
 		}
 		if g, kept, err = g.Remove(j.Remove); err != nil {
 			return nil, nil, within("remove", err)

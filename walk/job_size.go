@@ -42,7 +42,9 @@ func (j *Job) jobBytes(g *lattice.Graph) int64 {
 	return b + int64(nr)*out
 }
 
-// checkSize refuses jobs beyond the stated limits or the memory limit.
+// checkSize refuses jobs beyond the stated limits or the memory limit. With
+// method "auto" it counts the Krylov basis that Auto may build, and pins
+// the job to "chebyshev" when only that fits.
 func (j *Job) checkSize(g *lattice.Graph) error {
 	n, T := g.Len(), len(j.Times)
 	if j.Method == Exact && n > MaxExactSites {
@@ -65,8 +67,31 @@ func (j *Job) checkSize(g *lattice.Graph) error {
 			Msg: fmt.Sprintf("\"correlations\" would return %d values (%d times × %d² site pairs); the limit is %d values",
 				int64(n)*int64(n)*int64(T), T, n, MaxPopulationValues)}
 	}
+	lim := fault.MemoryLimit()
+	if j.Method == Auto {
+		// Auto may choose Krylov, whose basis of krylovDim+1 vectors
+		// dominates on large graphs; the Chebyshev estimate alone would
+		// understate the memory. When the Krylov basis does not fit but
+		// Chebyshev (a few vectors) does, the job is pinned to Chebyshev.
+		j.Method = Krylov
+		kb := j.jobBytes(g)
+		j.Method = Auto
+		if kb <= lim {
+			return nil
+		}
+		j.Method = Chebyshev
+		if j.jobBytes(g) <= lim {
+			return nil
+		}
+		j.Method = Auto
+	}
 	est := j.jobBytes(g)
-	if lim := fault.MemoryLimit(); est > lim {
+	if j.Method == Auto {
+		j.Method = Chebyshev // the least any propagation needs
+		est = j.jobBytes(g)
+		j.Method = Auto
+	}
+	if est > lim {
 		return fault.Large("lattice", est, lim)
 	}
 	return nil

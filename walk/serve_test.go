@@ -329,7 +329,7 @@ func TestServeNumericalAndEdgeCases(t *testing.T) {
 		// A time so large that no propagation can meet any tolerance.
 		`{"id":"far","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":[0,1e300]}`,
 		// Nothing moves with γ = 0: no exponent to fit.
-		`{"id":"still","lattice":{"kind":"chain","sites":5},"hopping":0,"start":{"site":2},"times":[0,1,2],"report":["regimes"]}`,
+		`{"id":"still","lattice":{"kind":"chain","sites":5},"hopping":0,"start":{"site":2},"times":[0,1,2,3,4],"report":["regimes"]}`,
 		`{"id":"rm","lattice":{"kind":"chain","sites":3},"remove":[0,1,2],"start":{"site":0},"times":[1]}`,
 		`{"id":"rm2","lattice":{"kind":"chain","sites":3},"remove":[0,7],"start":{"site":0},"times":[1]}`,
 		`{"id":"dim","lattice":{"kind":"hypercube","dimension":3},"start":{"near":[1,1]},"times":[1]}`,

@@ -1,0 +1,202 @@
+package walk_test
+
+// Regression tests for the findings of the acceptance audit of the bridge
+// (each case names the finding it pins down). Physics references: the
+// exact chain MSDs 2γt (classical) and 2γ²t² (quantum, Childs, Farhi &
+// Gutmann, Quantum Inf. Process. 1, 35 (2002), from memory).
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"strings"
+	"testing"
+
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+
+	"github.com/ampwalk/ampwalk/walk"
+)
+
+// fixServe runs walk.Serve on the lines and returns the decoded responses.
+func fixServe(t *testing.T, lines ...string) []map[string]any {
+	t.Helper()
+	var out bytes.Buffer
+	require.NoError(t, walk.Serve(context.Background(), strings.NewReader(strings.Join(lines, "\n")+"\n"), &out, nil))
+	var res []map[string]any
+	for _, l := range strings.Split(strings.TrimSpace(out.String()), "\n") {
+		var m map[string]any
+		require.NoError(t, json.Unmarshal([]byte(l), &m), l)
+		res = append(res, m)
+	}
+	require.Len(t, res, len(lines))
+	return res
+}
+
+// fixErr returns the code, field and message of an error line ("" when the
+// line is not an error).
+func fixErr(r map[string]any) (code, field, msg string) {
+	e, ok := r["error"].(map[string]any)
+	if !ok {
+		return "", "", ""
+	}
+	code, _ = e["code"].(string)
+	field, _ = e["field"].(string)
+	msg, _ = e["message"].(string)
+	return code, field, msg
+}
+
+func TestFixErrorCodesAndFields(t *testing.T) {
+	for _, c := range []struct {
+		finding, line   string
+		id, code, field string
+		msgHas          []string
+		msgLacks        []string
+	}{
+		{"classical negative bond weight",
+			`{"id":"cn","lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-1],[1,2]]},"dynamics":"classical","start":{"site":0},"times":[1],"report":["populations"]}`,
+			"cn", "invalid", "lattice.bonds[0]", []string{"a positive weight for classical dynamics", "got -1"}, nil},
+		{"classical negative weight, later bond",
+			`{"id":"cn2","lattice":{"kind":"graph","sites":3,"bonds":[[0,1],[1,2,-0.5]]},"dynamics":"classical","start":{"site":0},"times":[1]}`,
+			"cn2", "invalid", "lattice.bonds[1]", []string{"positive weight"}, nil},
+		{"too few times for regimes",
+			`{"id":"few","lattice":{"kind":"chain","sites":11},"start":{"site":5},"times":[1],"report":["regimes"]}`,
+			"few", "invalid", "times", []string{"at least 4"}, []string{"fit the fit"}},
+		{"empty fit window",
+			`{"id":"win","lattice":{"kind":"chain","sites":11},"start":{"site":5},"times":[1,2,3,4,5,6],"report":["regimes"],"fit":{"from":100,"to":200}}`,
+			"win", "invalid", "fit", []string{"at least 4", "holds 0"}, []string{"fit the fit", "fit fit"}},
+		{"remove duplicate entry",
+			`{"id":"rd","lattice":{"kind":"chain","sites":11},"start":{"site":0},"times":[1],"remove":[3,3]}`,
+			"rd", "invalid", "remove[1]", []string{"site 3"}, nil},
+		{"remove every site",
+			`{"id":"ra","lattice":{"kind":"chain","sites":2},"start":{"site":0},"times":[1],"remove":[0,1]}`,
+			"ra", "invalid", "remove", []string{"at least one site"}, nil},
+		{"gasket generation beyond the cap",
+			`{"id":"g20","lattice":{"kind":"gasket","generation":20},"start":{"site":0},"times":[1]}`,
+			"g20", "too-large", "lattice.generation", []string{"bytes", "generation 16"}, nil},
+		{"chain of 1e12 sites",
+			`{"id":"c12","lattice":{"kind":"chain","sites":1e12},"start":{"site":0},"times":[1]}`,
+			"c12", "too-large", "lattice.sites", []string{"bytes"}, []string{"-2147483648"}},
+		{"square 100000×100000",
+			`{"id":"sq","lattice":{"kind":"square","width":100000,"height":100000},"start":{"site":0},"times":[1]}`,
+			"sq", "too-large", "lattice.width", []string{"bytes"}, nil},
+		{"sites far beyond int range",
+			`{"id":"huge","lattice":{"kind":"chain","sites":1e300},"start":{"site":0},"times":[1]}`,
+			"huge", "too-large", "lattice.sites", []string{"bytes"}, []string{"-"}},
+		{"graph sites beyond the largest graph",
+			`{"id":"gs","lattice":{"kind":"graph","sites":1e12},"start":{"site":0},"times":[1]}`,
+			"gs", "too-large", "lattice.sites", []string{"bytes"}, nil},
+		{"negative generation stays invalid (contract example)",
+			`{"id":"neg","lattice":{"kind":"gasket","generation":-2},"start":{"site":0},"times":[1]}`,
+			"neg", "invalid", "lattice.generation", []string{"between 0 and 16; got -2"}, nil},
+		{"zero sites stays invalid",
+			`{"id":"z","lattice":{"kind":"chain","sites":0},"start":{"site":0},"times":[1]}`,
+			"z", "invalid", "lattice.sites", nil, nil},
+		{"non-integral size stays invalid",
+			`{"id":"h","lattice":{"kind":"chain","sites":2.5},"start":{"site":0},"times":[1]}`,
+			"h", "invalid", "lattice.sites", []string{"whole number"}, []string{"-2147483648"}},
+		{"very negative size: no negative range advertised",
+			`{"id":"vn","lattice":{"kind":"chain","sites":-1e300},"start":{"site":0},"times":[1]}`,
+			"vn", "invalid", "lattice.sites", []string{"non-negative"}, []string{"-2147483648", "-9"}},
+		{"duplicate key other than id: invalid naming the key, id echoed",
+			`{"id":"dup","lattice":{"kind":"chain","sites":3},"start":{"site":0},"times":[1],"times":[2]}`,
+			"dup", "invalid", "times", []string{"more than once"}, []string{"must be a JSON object"}},
+		{"duplicate id: invalid naming id",
+			`{"id":"q","id":"r","lattice":{"kind":"chain","sites":3},"start":{"site":0},"times":[1]}`,
+			"", "invalid", "id", []string{"more than once"}, []string{"must be a JSON object"}},
+		{"not an object is still malformed",
+			`[1,2]`, "", "malformed", "", []string{"JSON object"}, nil},
+	} {
+		t.Run(c.finding, func(t *testing.T) {
+			r := fixServe(t, c.line)[0]
+			code, field, msg := fixErr(r)
+			assert.Equal(t, c.code, code, "%v", r)
+			assert.Equal(t, c.field, field, "%v", r)
+			assert.Equal(t, c.id, r["id"])
+			for _, s := range c.msgHas {
+				assert.Contains(t, msg, s)
+			}
+			for _, s := range c.msgLacks {
+				assert.NotContains(t, msg, s)
+			}
+		})
+	}
+}
+
+func TestFixClassicalZeroWeightAccepted(t *testing.T) {
+	// Documented decision: a zero weight under classical dynamics is a bond
+	// of rate 0 and behaves as if it were not listed (site 2 stays empty).
+	res := fixServe(t,
+		`{"id":"z","lattice":{"kind":"graph","sites":3,"bonds":[[0,1],[1,2,0]]},"dynamics":"classical","start":{"site":0},"times":[1],"report":["populations"]}`,
+		`{"id":"q","lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-1],[1,2]]},"start":{"site":0},"times":[1],"report":["populations"]}`)
+	require.Nil(t, res[0]["error"], "%v", res[0])
+	p := res[0]["populations"].([]any)[0].([]any)
+	assert.InDelta(t, 0, p[2], 1e-12)
+	// (1 + e^{−2t})/2 on the two-site rate-1 pair (common practice).
+	assert.InDelta(t, 0.5676676416183064, p[0], 1e-9)
+	// Quantum dynamics keeps accepting negative weights (a real hopping).
+	require.Nil(t, res[1]["error"], "%v", res[1])
+}
+
+func TestFixByteOrderMark(t *testing.T) {
+	// A UTF-8 byte order mark at the start of the input is stripped.
+	res := fixServe(t, "\ufeff"+`{"id":"bom","lattice":{"kind":"chain","sites":3},"start":{"site":0},"times":[1]}`)
+	assert.Nil(t, res[0]["error"], "%v", res[0])
+	assert.Equal(t, "bom", res[0]["id"])
+}
+
+func TestFixAutoCountsKrylovBasis(t *testing.T) {
+	// With a memory limit that holds Chebyshev's few vectors but not the
+	// Krylov basis (31 vectors of 16·n bytes, n = 10⁵: 50 MB; the limit of
+	// 40 MB is chosen here), "auto" runs Chebyshev instead of building a
+	// basis that does not fit; below Chebyshev's own need it is too-large.
+	line := `{"id":"k","lattice":{"kind":"chain","sites":100000},"start":{"site":50000},"times":[1,2]}`
+	t.Setenv("AMPWALK_MEMORY_LIMIT", "40000000")
+	r := fixServe(t, line)[0]
+	require.Nil(t, r["error"], "%v", r)
+	assert.Equal(t, "chebyshev", r["diagnostics"].(map[string]any)["method"])
+	// 2t² at t = 2 (chain MSD, Childs, Farhi & Gutmann 2002, from memory).
+	assert.InDelta(t, 8, r["msd"].([]any)[1], 1e-8)
+	t.Setenv("AMPWALK_MEMORY_LIMIT", "10000000")
+	r = fixServe(t, line)[0]
+	code, _, msg := fixErr(r)
+	assert.Equal(t, "too-large", code)
+	assert.Contains(t, msg, "bytes")
+}
+
+func TestFixRegimesPowerLaw(t *testing.T) {
+	// The audit's requests: classical chain MSD = 2t is one diffusive regime
+	// without crossover; the quantum chain MSD = 2t² (exact to t ≈ 180 on 801
+	// sites, scipy 1.10.1 expm_multiply per the audit) has no crossover
+	// before the front reaches the ends, and its local exponent is
+	// 2.000 ± 0.02 at t = 149.
+	res := fixServe(t,
+		`{"id":"rg","lattice":{"kind":"chain","sites":801},"dynamics":"classical","start":{"site":400},"times":{"from":0.01,"to":300,"count":60,"spacing":"log"},"report":["regimes"]}`,
+		`{"id":"rq","lattice":{"kind":"chain","sites":801},"start":{"site":400},"times":{"from":0.01,"to":300,"count":60,"spacing":"log"},"report":["regimes"]}`)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+	}
+	regs := res[0]["regimes"].([]any)
+	require.Len(t, regs, 1, "%v", regs)
+	assert.Equal(t, "diffusive", regs[0].(map[string]any)["kind"])
+	assert.Empty(t, res[0]["crossovers"])
+
+	q := res[1]
+	first := q["regimes"].([]any)[0].(map[string]any)
+	assert.Equal(t, "ballistic", first["kind"])
+	assert.GreaterOrEqual(t, first["to"].(float64), 170.0, "no crossover before the bend: %v", q["regimes"])
+	for _, c := range q["crossovers"].([]any) {
+		m := c.(map[string]any)
+		assert.Less(t, m["low"], m["time"], "non-degenerate interval %v", m)
+		assert.Greater(t, m["high"], m["time"], "non-degenerate interval %v", m)
+	}
+	ft, le := q["fit_times"].([]any), q["local_exponent"].([]any)
+	checked := 0
+	for i, tt := range ft {
+		if x := tt.(float64); x > 140 && x < 150 { // t = 149.1
+			assert.InDelta(t, 2, le[i], 0.02, "t = %v", x)
+			checked++
+		}
+	}
+	assert.Equal(t, 1, checked)
+}

@@ -1,0 +1,328 @@
+package walk
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"math"
+
+	"github.com/ampwalk/ampwalk/internal/fault"
+	"github.com/ampwalk/ampwalk/lattice"
+)
+
+// Input checks of the job format that sit between decoding and building:
+// a leading byte order mark, the id of a request with a repeated key,
+// lattice size parameters (sizes beyond any machine are "too-large" with
+// the estimate, not "invalid"), remove lists, classical bond weights and
+// the points of a regime fit.
+
+// utf8BOM is the UTF-8 encoding of U+FEFF, which some editors put at the
+// start of a file. Decode strips it from the start of a line.
+var utf8BOM = []byte("\xef\xbb\xbf")
+
+// stripBOM removes a leading UTF-8 byte order mark.
+func stripBOM(line []byte) []byte { return bytes.TrimPrefix(line, utf8BOM) }
+
+// idDespite returns the id of a request whose top-level object has a repeated
+// key other than "id" (err names the key), so that the error line can echo
+// it; "" when the id itself repeats or cannot be read.
+func idDespite(line []byte, err error) string {
+	fe, ok := err.(*fault.Error)
+	if !ok || fe.Field == "id" {
+		return ""
+	}
+	var v struct {
+		ID *string `json:"id"`
+	}
+	if json.Unmarshal(line, &v) != nil || v.ID == nil {
+		return ""
+	}
+	return *v.ID
+}
+
+// maxExactInt is the largest integer a JSON number is read to exactly.
+const maxExactInt = 1 << 53
+
+// latticeInt reads the integer lattice parameter key. Integral values up to
+// 2⁵³ in magnitude are stored; their range is checked by checkFormulaSize
+// (sizes) and the builders. A positive value beyond that is "too-large"; a
+// non-integral or non-numeric value, or a negative one beyond it, is
+// "invalid" without advertising a range of sizes that includes negatives.
+func (o *object) latticeInt(key string, dst *int) error {
+	raw, ok := o.take(key)
+	if !ok {
+		return nil
+	}
+	path := join(o.path, key)
+	v, err := number(path, raw)
+	if err != nil || v != math.Trunc(v) {
+		return fault.New(path, "must be a whole number; got %s", describe(raw))
+	}
+	switch {
+	case v > maxExactInt:
+		return &fault.Error{Kind: fault.TooLarge, Field: path,
+			Msg: fmt.Sprintf("is %s: a lattice of that size would need more than %d bytes for its site positions alone, beyond any machine (the largest graph has %d sites)",
+				describe(raw), int64(16)*maxExactInt, lattice.MaxSites)}
+	case v < -maxExactInt:
+		return fault.New(path, "must be a small non-negative whole number; got %s", describe(raw))
+	}
+	*dst = int(v)
+	return nil
+}
+
+// graphSites reads lattice.sites of the graph kind: 1 … lattice.MaxSites,
+// with counts beyond MaxSites "too-large".
+func (o *object) graphSites(dst *int) error {
+	var n int
+	if err := o.latticeInt("sites", &n); err != nil {
+		return err
+	}
+	if n > lattice.MaxSites {
+		return tooLargeLattice("lattice.sites", "graph", float64(n), 0, 2,
+			fmt.Sprintf("the largest graph has %d sites", lattice.MaxSites))
+	}
+	if n < 1 {
+		return fault.Range("lattice.sites", fmt.Sprintf("between 1 and %d", lattice.MaxSites), n)
+	}
+	*dst = n
+	return nil
+}
+
+// formulaCounts returns the numbers of sites and bonds of the lattice s
+// describes, from the closed forms of its builder (bonds rounded up where
+// open boundaries remove a few), the dimension of its positions, the field
+// that drives the size, and the builder's own parameter cap as prose when
+// the parameters exceed it. ok is false for kinds without a closed form
+// (graph and the extensions decoded elsewhere) and for parameters below
+// their minimum, which the builder refuses as "invalid".
+func (s *LatticeSpec) formulaCounts() (n, m float64, dim int, field, capped string, ok bool) {
+	fw, fh, fd := float64(s.Width), float64(s.Height), float64(s.Depth)
+	cell := func(perCell, bondsPerCell float64) (float64, float64, int, string, string, bool) {
+		if s.Width < 1 || s.Height < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		return perCell * fw * fh, bondsPerCell * fw * fh, 2, "lattice.width", "", true
+	}
+	line := func() (float64, float64, int, string, string, bool) {
+		if s.Sites < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		return float64(s.Sites), float64(s.Sites), 2, "lattice.sites", "", true
+	}
+	gen := func(max int, name string) string {
+		if s.Generation > max {
+			return fmt.Sprintf("the %s builder stops at generation %d", name, max)
+		}
+		return ""
+	}
+	switch s.Kind {
+	case "chain", "ring", "fibonacci", "harper":
+		return line()
+	case "complete":
+		if s.Sites < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		f := float64(s.Sites)
+		return f, f * (f - 1) / 2, 2, "lattice.sites", "", true
+	case "square":
+		return cell(1, 2)
+	case "triangular":
+		return cell(1, 3)
+	case "honeycomb":
+		return cell(2, 3)
+	case "kagome":
+		return cell(3, 6)
+	case "lieb":
+		return cell(3, 4)
+	case "cubic":
+		if s.Width < 1 || s.Height < 1 || s.Depth < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		return fw * fh * fd, 3 * fw * fh * fd, 3, "lattice.width", "", true
+	case "triangle":
+		if s.Side < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		L := float64(s.Side)
+		c := ""
+		if s.Side > 1<<15 {
+			c = fmt.Sprintf("the triangle builder stops at side %d", 1<<15)
+		}
+		return (L + 1) * (L + 2) / 2, 3 * L * (L + 1) / 2, 2, "lattice.side", c, true
+	case "gasket":
+		if s.Generation < 0 {
+			return 0, 0, 0, "", "", false
+		}
+		p := math.Pow(3, float64(s.Generation))
+		return 3 * (p + 1) / 2, 3 * p, 2, "lattice.generation", gen(lattice.MaxGasketGeneration, "gasket"), true
+	case "carpet":
+		if s.Generation < 0 {
+			return 0, 0, 0, "", "", false
+		}
+		// The builder's recursion for the cell count n and bond count m.
+		n, m, p3 := 1.0, 0.0, 1.0
+		if s.Variant == "corners" {
+			n, m = 4, 4
+		}
+		for range min(s.Generation, 400) {
+			if s.Variant == "corners" {
+				n, m = 8*n-8*(p3+1), 8*m-8*p3
+			} else {
+				n, m = 8*n, 8*m+8*p3
+			}
+			p3 *= 3
+		}
+		if s.Generation > 400 {
+			n, m = math.Inf(1), math.Inf(1)
+		}
+		return n, m, 2, "lattice.generation", gen(lattice.MaxCarpetGeneration, "carpet"), true
+	case "hypercube":
+		if s.Dimension < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		d := float64(s.Dimension)
+		c := ""
+		if s.Dimension > lattice.MaxHypercubeDimension {
+			c = fmt.Sprintf("the hypercube builder stops at dimension %d", lattice.MaxHypercubeDimension)
+		}
+		return math.Pow(2, d), d * math.Pow(2, d-1), min(s.Dimension, 1<<20), "lattice.dimension", c, true
+	case "star":
+		if s.Leaves < 1 {
+			return 0, 0, 0, "", "", false
+		}
+		return float64(s.Leaves) + 1, float64(s.Leaves), 2, "lattice.leaves", "", true
+	case "cayley":
+		if s.Coordination < 2 || s.Coordination > 1_000_000 || s.Shells < 0 {
+			return 0, 0, 0, "", "", false
+		}
+		n, shell := 1.0, float64(s.Coordination)
+		for r := 1; r <= s.Shells && n <= 4*lattice.MaxSites; r++ {
+			n += shell
+			shell *= float64(s.Coordination - 1)
+		}
+		return n, n - 1, 2, "lattice.shells", "", true
+	case "vicsek":
+		if s.Generation < 0 {
+			return 0, 0, 0, "", "", false
+		}
+		p := math.Pow(5, float64(s.Generation))
+		return p, p - 1, 2, "lattice.generation", gen(lattice.MaxVicsekGeneration, "vicsek"), true
+	case "tfractal":
+		if s.Generation < 0 {
+			return 0, 0, 0, "", "", false
+		}
+		p := math.Pow(3, float64(s.Generation))
+		return p + 1, p, 2, "lattice.generation", gen(lattice.MaxTFractalGeneration, "tfractal"), true
+	}
+	return 0, 0, 0, "", "", false
+}
+
+// checkFormulaSize refuses, before anything is built, a lattice whose size
+// parameters give more sites than any graph may have (lattice.MaxSites),
+// exceed the builder's own cap (which exists for the same reason), or whose
+// graph alone (lattice.EstimateBytes of the closed-form counts) exceeds the
+// memory limit: code "too-large" with the estimate in bytes. Parameters
+// below their minimum are left to the builder ("invalid").
+func (s *LatticeSpec) checkFormulaSize() error {
+	n, m, dim, field, capped, ok := s.formulaCounts()
+	if !ok {
+		return nil
+	}
+	switch {
+	case capped != "":
+		return tooLargeLattice(field, s.Kind, n, m, dim, capped)
+	case n > lattice.MaxSites:
+		return tooLargeLattice(field, s.Kind, n, m, dim, fmt.Sprintf("the largest graph has %d sites", lattice.MaxSites))
+	}
+	if est, lim := latticeBytes(n, m, dim), float64(fault.MemoryLimit()); est > lim {
+		return tooLargeLattice(field, s.Kind, n, m, dim, fmt.Sprintf("the memory limit is %d bytes", int64(lim)))
+	}
+	return nil
+}
+
+// latticeBytes is lattice.EstimateBytes for counts that may exceed an int
+// (the same formula in floating point beyond 2⁵⁰).
+func latticeBytes(n, m float64, dim int) float64 {
+	const big = 1 << 50
+	if n <= big && m <= big {
+		return float64(lattice.EstimateBytes(int(n), int(m), dim))
+	}
+	return 8*n*float64(dim) + 16*m + 4*(n+1)
+}
+
+// tooLargeLattice is the "too-large" error of a lattice of n sites and m
+// bonds, with the estimate of its graph in bytes.
+func tooLargeLattice(field, kind string, n, m float64, dim int, why string) error {
+	est := latticeBytes(n, m, dim)
+	var size string
+	if est < 1<<62 {
+		size = fmt.Sprintf("about %d bytes (%.3g GiB)", int64(est), est/(1<<30))
+	} else {
+		size = fmt.Sprintf("about %.3g bytes", est)
+	}
+	return &fault.Error{Kind: fault.TooLarge, Field: field,
+		Msg: fmt.Sprintf("gives a %s lattice of %.4g sites and %.4g bonds, whose graph alone needs %s before any propagation; %s",
+			kind, n, m, size, why)}
+}
+
+// checkRemove validates the remove list against a graph of n sites: every
+// entry a site index (field "remove[k]"), no site twice ("remove[k]" of the
+// repeat), and at least one site left (field "remove").
+func checkRemove(remove []int, n int) error {
+	seen := make(map[int]int, len(remove))
+	for k, i := range remove {
+		if i < 0 || i >= n {
+			return fault.New(index("remove", k), "must be a site index between 0 and %d; got %d", n-1, i)
+		}
+		if p, dup := seen[i]; dup {
+			return fault.New(index("remove", k), "repeats site %d (already remove[%d]); list each site once", i, p)
+		}
+		seen[i] = k
+	}
+	if len(seen) >= n {
+		return fault.New("remove", "must leave at least one site; it lists all %d sites", n)
+	}
+	return nil
+}
+
+// checkClassicalBonds refuses a negative listed bond weight under classical
+// dynamics: the weight is a rate, and a negative one makes −L
+// non-stochastic (populations leave [0, 1]). A zero weight is accepted: a
+// bond of rate 0 carries no transfer, as if it were not listed.
+func (job *Job) checkClassicalBonds() error {
+	if job.Dynamics != Classical || job.Lattice == nil {
+		return nil
+	}
+	for k, b := range job.Lattice.Bonds {
+		if b.W < 0 {
+			return fault.Range(index("lattice.bonds", k),
+				"a positive weight for classical dynamics (a rate; 0 is accepted and carries no transfer)", b.W)
+		}
+	}
+	return nil
+}
+
+// checkFitWindow refuses a regime fit of a walk job whose window holds
+// fewer than 4 usable points (t > 0 and a positive fitted quantity): a user
+// input problem, "invalid", field "fit" when a window was given and "times"
+// otherwise.
+func (j *Job) checkFitWindow(t []float64) error {
+	c := 0
+	for _, x := range t {
+		if x >= j.Fit.From && (j.Fit.To == 0 || x <= j.Fit.To) {
+			c++
+		}
+	}
+	if c >= 4 {
+		return nil
+	}
+	if j.Fit.From != 0 || j.Fit.To != 0 {
+		to := "the last time"
+		if j.Fit.To != 0 {
+			to = fmt.Sprint(j.Fit.To)
+		}
+		return fault.New("fit", "window from %v to %s holds %d usable times (t > 0 with the fitted quantity positive); the regime analysis needs at least 4: widen \"from\"/\"to\" or report more times in it",
+			j.Fit.From, to, c)
+	}
+	return fault.New("times", "give %d usable times (t > 0 with the fitted quantity positive); the regime analysis needs at least 4", c)
+}
