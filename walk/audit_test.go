@@ -635,3 +635,60 @@ func TestAuditCancelled(t *testing.T) {
 	}
 	assert.LessOrEqual(t, len(lines), 2, "nothing after the cancelled job")
 }
+
+// TestAuditSeriesCrossover checks the regime analysis on a broken power
+// law y = t² (t ≤ 1), y = t (t ≥ 1), exact and with 2% noise and errors:
+// two regimes, ballistic then diffusive, crossover at t = 1 inside its 95%
+// interval; and the local exponent of y = t²/(1+t), whose exact value is
+// 2 − t/(1+t).
+func TestAuditSeriesCrossover(t *testing.T) {
+	var ts, y, noisy, errs, smooth []float64
+	// Deterministic ±2% perturbation pattern (common practice: fixed, no RNG).
+	pert := []float64{0.013, -0.017, 0.004, 0.019, -0.008, -0.02, 0.011, 0.002, -0.013, 0.016}
+	for k := 0; k <= 40; k++ {
+		tt := math.Pow(10, -2+4*float64(k)/40)
+		v := tt
+		if tt < 1 {
+			v = tt * tt
+		}
+		ts = append(ts, tt)
+		y = append(y, v)
+		noisy = append(noisy, v*(1+pert[k%len(pert)]))
+		errs = append(errs, 0.02*v)
+		smooth = append(smooth, tt*tt/(1+tt))
+	}
+	mk := func(id string, v, e []float64) map[string]any {
+		s := map[string]any{"times": ts, "values": v}
+		if e != nil {
+			s["errors"] = e
+		}
+		return map[string]any{"id": id, "series": s, "report": []string{"regimes"}, "fit": map[string]any{"segments": 4}}
+	}
+	res := auditLines(t, mk("exact", y, nil), mk("noisy", noisy, errs), mk("smooth", smooth, nil))
+	for _, r := range res[:2] {
+		require.Nil(t, r["error"], "%v", r)
+		regs := r["regimes"].([]any)
+		require.Len(t, regs, 2, "%s", r["id"])
+		a, b := regs[0].(map[string]any), regs[1].(map[string]any)
+		assert.Equal(t, "ballistic", a["kind"])
+		assert.Equal(t, "diffusive", b["kind"])
+		assert.InDelta(t, 2, a["exponent"], 0.02)
+		assert.InDelta(t, 1, b["exponent"], 0.02)
+		cr := r["crossovers"].([]any)
+		require.Len(t, cr, 1)
+		c := cr[0].(map[string]any)
+		assert.InDelta(t, 1, c["time"], 0.1)
+		assert.LessOrEqual(t, c["low"], 1.0+1e-9)
+		assert.GreaterOrEqual(t, c["high"], 1.0-1e-9)
+	}
+	r := res[2]
+	require.Nil(t, r["error"], "%v", r)
+	ft := r["fit_times"].([]any)
+	le := r["local_exponent"].([]any)
+	require.Equal(t, len(ft), len(le))
+	for i := range ft {
+		x := ft[i].(float64)
+		// 0.01: twice the error seen with 41 points per 4 decades (audit).
+		assert.InDelta(t, 2-x/(1+x), le[i], 0.01, "t = %v", x)
+	}
+}
