@@ -100,6 +100,39 @@ class ClientTest(unittest.TestCase):
             self.assertEqual(len(pops[0]), 5)
         self.assertAlmostEqual(sum(as_list(pops[1])), 1, delta=1e-9)  # unitarity (common practice)
 
+    def test_lab_workflow(self):
+        # Design -> plan -> measurement CSV -> reduce and compare, on an
+        # invented row of 21 guides 10 um apart, C(d) = 1.2 exp(-0.2 (d - 10))
+        # per cm, cut off below the next-nearest distance.
+        row = {"kind": "positions", "positions": [[10.0 * i, 0] for i in range(21)],
+               "law": {"type": "exponential", "c0": 1.2, "kappa": 0.2, "d0": 10},
+               "cutoff": 15}
+        plan = self.bridge.run({"id": "plan", "lattice": row, "start": {"site": 10},
+                                "plan": {"max_length": 4, "samples": 9, "points": 16},
+                                "fabrication": {"jitter": 0.2, "realisations": 4, "seed": 1}})
+        self.assertEqual(len(plan["plan"]["samples"]), 9)
+        self.assertTrue(plan["plan"]["rationale"])
+        lengths = [0.5, 1, 1.5, 2, 2.5, 3]
+        walk = self.bridge.run({"lattice": row, "start": {"site": 10}, "times": lengths,
+                                "report": ["populations", "msd"], "tolerance": 1e-12})
+        rows = ["length,site,intensity"]
+        for z, pop in zip(lengths, walk["populations"]):
+            rows += ["%r,%d,%r" % (z, j, 1000 * float(p)) for j, p in enumerate(pop)]
+        m = self.bridge.run({"lattice": row, "measurement": {"csv": "\n".join(rows) + "\n", "start": 10},
+                             "compare": True, "units": {"coupling": "1/cm", "reference": 1.2}})
+        self.assertEqual(m["time_unit"], "cm")
+        for pt, want in zip(m["points"], as_list(walk["msd"])):
+            self.assertAlmostEqual(pt["msd"], want, delta=1e-9 * want)
+        for c in m["comparison"]:
+            self.assertAlmostEqual(c["overlap"], 1, delta=1e-9)
+        # Ballistic spreading, MSD = 2 (C z)^2 d^2 (Childs, Farhi, Gutmann
+        # 2002, from memory).
+        self.assertAlmostEqual(m["regimes"][0]["exponent"], 2, delta=0.02)
+        with self.assertRaises(ac.AmpwalkError) as cm:
+            self.bridge.run({"lattice": row, "measurement": {"csv": "length,site,intensity\n1,0,-1\n", "start": 10}})
+        self.assertEqual(cm.exception.field, "measurement.csv")
+        self.assertTrue(cm.exception.message.startswith("measurement.csv line 2:"))
+
 
 if __name__ == "__main__":
     unittest.main()
