@@ -234,7 +234,11 @@ package walk
 // with fewer than 4 lengths > 0) and, with compare, "comparison" [{length,
 // overlap, distance}]: Σ_j √(p_j q_j) and ½Σ_j |p_j − q_j| against the
 // quantum walk of the same lattice from the input site at the measured
-// lengths (converted with units), with "diagnostics".
+// lengths (converted with units), with "diagnostics". With units the
+// response also has "time_unit" and "dimensionless_times" (one per point).
+// A Go program filling a Job directly sets Measurement (and Compare); the
+// lab specs are LawSpec, UnitsSpec, FabricationSpec, PlanSpec and
+// MeasurementSpec.
 //
 // Predicted couplings, lengths and times are model results: calibrate them
 // against measurements on the real device, and the laboratory's own laser
