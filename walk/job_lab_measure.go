@@ -92,6 +92,7 @@ func (job *Job) decodeMeasurementJob(o *object) error {
 	if err := mo.int("start", &m.Start, 0, 1<<31-1); err != nil {
 		return err
 	}
+	mq := mo.has("quantity")
 	if err := mo.choice("quantity", &m.Quantity, "msd", "spread"); err != nil {
 		return err
 	}
@@ -110,8 +111,17 @@ func (job *Job) decodeMeasurementJob(o *object) error {
 	if fo, err := o.sub("fit"); err != nil {
 		return err
 	} else if fo != nil {
-		if err := decodeFit(fo, &job.Fit, false); err != nil {
+		// fit.quantity, as in walk jobs, may name the curve instead of
+		// measurement.quantity; given both, they must agree.
+		fq := fo.has("quantity")
+		if err := decodeFit(fo, &job.Fit, true); err != nil {
 			return err
+		}
+		if fq {
+			if mq && job.Fit.Quantity != m.Quantity {
+				return fault.New("fit.quantity", "must agree with measurement.quantity (%q); got %q", m.Quantity, job.Fit.Quantity)
+			}
+			m.Quantity = job.Fit.Quantity
 		}
 	}
 	return job.decodeTolMethod(o)

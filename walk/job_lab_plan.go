@@ -72,7 +72,8 @@ func registeredPlanner() Planner {
 	return planner
 }
 
-// decodeTolMethod reads tolerance and method as a walk job does.
+// decodeTolMethod reads tolerance (in (0, 0.1]) and method, for walk, plan
+// and measurement jobs.
 func (job *Job) decodeTolMethod(o *object) error {
 	if raw, ok := o.take("tolerance"); ok {
 		v, err := number("tolerance", raw)

@@ -523,6 +523,14 @@ func TestLabDefaults(t *testing.T) {
 	assert.Equal(t, &walk.UnitsSpec{Coupling: "eV", Reference: 0.1}, j.Units)
 	assert.False(t, j.Compare)
 	assert.Equal(t, 4, j.Fit.Segments)
+
+	// fit.quantity names the curve like measurement.quantity; both must agree.
+	j, err = walk.Decode([]byte(`{"lattice":` + lat + `,"measurement":{"csv":"x","start":0},"fit":{"quantity":"spread"}}`))
+	require.NoError(t, err)
+	assert.Equal(t, "spread", j.Measurement.Quantity)
+	_, err = walk.Decode([]byte(`{"lattice":` + lat + `,"measurement":{"csv":"x","start":0,"quantity":"msd"},"fit":{"quantity":"spread"}}`))
+	require.Error(t, err)
+	assert.Contains(t, err.Error(), "fit.quantity")
 }
 
 func TestLabCombinations(t *testing.T) {
