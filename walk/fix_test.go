@@ -200,3 +200,45 @@ func TestFixRegimesPowerLaw(t *testing.T) {
 	}
 	assert.Equal(t, 1, checked)
 }
+
+func TestFixLongTimes(t *testing.T) {
+	// Chain of 6 sites from site 1 at t = 10⁹: p_start = 0.2722169155236
+	// (the audit's analytic eigenpairs 2cos(kπ/7) in 60-digit arithmetic).
+	// The reported error bound covers the rounding of the phases
+	// (≈ ε‖H‖t), so it is at least the true error of the return
+	// probability; "chebyshev" would need about 2·10⁹ products: too-large.
+	const truth = 0.2722169155236
+	res := fixServe(t,
+		`{"id":"k","lattice":{"kind":"chain","sites":6},"start":{"site":1},"times":[1e9],"method":"krylov","report":["return"]}`,
+		`{"id":"c","lattice":{"kind":"chain","sites":6},"start":{"site":1},"times":[1e9],"method":"chebyshev","report":["return"]}`)
+	require.Nil(t, res[0]["error"], "%v", res[0])
+	got := res[0]["return"].([]any)[0].(float64)
+	bound := res[0]["diagnostics"].(map[string]any)["error_bound"].(float64)
+	// |p − p̃| ≤ 2‖ψ − ψ̃‖ for a probability (common practice).
+	assert.LessOrEqual(t, abs(got-truth), 2*bound)
+	code, field, msg := fixErr(res[1])
+	assert.Equal(t, "too-large", code, "%v", res[1])
+	assert.Equal(t, "method", field)
+	assert.Contains(t, msg, "products")
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+func TestFixSeriesFitQuantityAndLogGrid(t *testing.T) {
+	res := fixServe(t,
+		// A fit object reused from a walk job: quantity is checked and ignored.
+		`{"id":"s","series":{"times":[1,2,3,4,5],"values":[1,2,3,4,5]},"fit":{"quantity":"msd"}}`,
+		`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,3,4,5]},"fit":{"quantity":"x"}}`,
+		// Exact decades on a log grid.
+		`{"id":"g","lattice":{"kind":"chain","sites":5},"start":{"site":2},"times":{"from":0.001,"to":1000,"count":7,"spacing":"log"}}`)
+	require.Nil(t, res[0]["error"], "%v", res[0])
+	code, field, _ := fixErr(res[1])
+	assert.Equal(t, "invalid", code)
+	assert.Equal(t, "fit.quantity", field)
+	assert.Equal(t, []any{0.001, 0.01, 0.1, 1.0, 10.0, 100.0, 1000.0}, res[2]["times"])
+}

@@ -326,3 +326,89 @@ func (j *Job) checkFitWindow(t []float64) error {
 	}
 	return fault.New("times", "give %d usable times (t > 0 with the fitted quantity positive); the regime analysis needs at least 4", c)
 }
+
+// logGridPoint returns the point at fraction f of a log-spaced grid from a
+// to b: a·(b/a)^f, except that a point whose decimal exponent
+// log₁₀a + f·(log₁₀b − log₁₀a) is an integer (to 10⁻¹² relative) is that
+// power of ten exactly, so that {"from": 0.001, "to": 1000, "count": 7}
+// gives 0.01, 0.1, 10 and 100 without round-off.
+func logGridPoint(a, b, f float64) float64 {
+	la, lb := math.Log10(a), math.Log10(b)
+	e := la + f*(lb-la)
+	if r := math.Round(e); math.Abs(e-r) <= 1e-12*max(1, math.Abs(e)) && math.Abs(r) < 300 {
+		return math.Pow10(int(r))
+	}
+	return a * math.Pow(b/a, f)
+}
+
+// hamiltonianNorm returns an upper bound on the spectral norm of the
+// generator of g with hopping gamma: Gershgorin's bound
+// max_i (|ε_i| + |γ| Σ_j |W_ij|) (Gershgorin, Izv. Akad. Nauk SSSR 6, 749
+// (1931)), widened by the disorder's on-site strength and bond spread.
+// The classical generator L = D − W has the bound 2|γ| max_i Σ_j |W_ij|.
+func (j *Job) hamiltonianNorm(g *lattice.Graph) float64 {
+	row := make([]float64, g.Len())
+	for k := range g.NumBonds() {
+		b := g.Bond(k)
+		row[b.I] += math.Abs(b.W)
+		row[b.J] += math.Abs(b.W)
+	}
+	scale := 1.0
+	var extra float64
+	if d := j.Disorder; d != nil {
+		scale += d.Bond
+		extra = d.Onsite
+		if d.Law == "gauss" {
+			scale += 3 * d.Bond // three standard deviations
+			extra *= 3
+		}
+	}
+	var norm float64
+	for i, r := range row {
+		v := math.Abs(j.Hopping) * r * scale
+		if j.Dynamics == Classical {
+			v *= 2
+		} else {
+			v += math.Abs(g.Onsite(i)) + extra
+		}
+		norm = math.Max(norm, v)
+	}
+	return norm
+}
+
+// roundingFloor raises the reported error bound of a quantum walk to the
+// error that double precision cannot avoid: the phases λt of the
+// propagator carry a relative rounding error ε = 2⁻⁵² each, so the state
+// at time t is uncertain by about ε·‖H‖·t (a propagator's own bound can
+// miss this at very long times). Classical propagation damps instead of
+// rotating and gets no floor.
+func (j *Job) roundingFloor(resp *Response, g *lattice.Graph) {
+	d := resp.Diagnostics
+	if d == nil || j.Dynamics == Classical || len(j.Times) == 0 {
+		return
+	}
+	tmax := j.Times[len(j.Times)-1]
+	d.ErrorBound = math.Max(d.ErrorBound, 0x1p-52*j.hamiltonianNorm(g)*tmax)
+}
+
+// maxChebyshevProducts bounds the matrix–vector products a "chebyshev" job
+// may need: about ‖H‖·t_max products reach t_max (the series of e^{−iHt}
+// converges after about ‖H‖t terms; Tal-Ezer & Kosloff, J. Chem. Phys. 81,
+// 3967 (1984)). 10⁹ products take hours even on a small graph (chosen here).
+const maxChebyshevProducts = 1e9
+
+// checkChebyshevTime refuses a "chebyshev" job whose product count alone
+// exceeds maxChebyshevProducts, as "too-large" with the estimate.
+func (j *Job) checkChebyshevTime(g *lattice.Graph) error {
+	if j.Method != Chebyshev || len(j.Times) == 0 {
+		return nil
+	}
+	p := j.hamiltonianNorm(g) * j.Times[len(j.Times)-1]
+	if p <= maxChebyshevProducts {
+		return nil
+	}
+	work := p * float64(2*g.NumBonds()+g.Len())
+	return &fault.Error{Kind: fault.TooLarge, Field: "method",
+		Msg: fmt.Sprintf("\"chebyshev\" needs about %.3g matrix–vector products to reach t = %v (‖H‖·t with ‖H‖ ≤ %.4g), about %.3g multiply-adds, beyond the limit of %.0e products: use \"exact\" (small graphs) or \"auto\"",
+			p, j.Times[len(j.Times)-1], j.hamiltonianNorm(g), work, maxChebyshevProducts)}
+}

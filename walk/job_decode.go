@@ -171,6 +171,9 @@ func (job *Job) decodeWalkJob(o *object) error {
 		if err := job.checkClassicalBonds(); err != nil {
 			return err
 		}
+		if err := job.checkClassicalBonds(); err != nil {
+			return err
+		}
 		if job.reports("correlations") {
 			return fault.New("report", "\"correlations\" needs quantum dynamics")
 		}
@@ -323,7 +326,7 @@ func TimeGrid(a, b float64, n int, log bool) []float64 {
 		}
 		f := float64(k) / float64(n-1)
 		if log {
-			ts[k] = a * math.Pow(b/a, f)
+			ts[k] = logGridPoint(a, b, f)
 		} else {
 			ts[k] = a + (b-a)*f
 		}
@@ -379,14 +382,14 @@ func decodeDisorder(raw json.RawMessage) (*DisorderSpec, error) {
 }
 
 func decodeFit(o *object, f *FitSpec, walk bool) error {
-	keys := []string{"from", "to", "segments"}
-	if walk {
-		keys = append(keys, "quantity")
-	}
-	if err := o.only(keys...); err != nil {
+	if err := o.only("from", "to", "segments", "quantity"); err != nil {
 		return err
 	}
-	if err := o.choice("quantity", &f.Quantity, "msd", "spread"); err != nil {
+	q := &f.Quantity
+	if !walk {
+		q = new(string) // checked and ignored: the curve is given (one fit object serves both)
+	}
+	if err := o.choice("quantity", q, "msd", "spread"); err != nil {
 		return err
 	}
 	if err := o.num("from", &f.From); err != nil {

@@ -59,8 +59,9 @@ package walk
 //	times      list of non-negative non-decreasing times (at most 100000), or
 //	           {"from": a, "to": b, "count": n, "spacing": "linear"|"log"}
 //	           (count default 50, spacing default "linear"; log needs a > 0;
-//	           both include a and b exactly; the response echoes the
-//	           expanded list)
+//	           both include a and b exactly, and log grid points at
+//	           integral decimal exponents are exact powers of ten; the
+//	           response echoes the expanded list)
 //	tolerance  target 2-norm error of the state, in (0, 0.1], default 1e-10
 //	method     "auto" (default) | "exact" | "krylov" | "chebyshev"
 //	report     default ["msd", "return"]; names below
@@ -139,7 +140,11 @@ package walk
 // "diagnostics" {method, products, norm_drift, error_bound, seconds,
 // reason (extension: why auto chose the method)}; over realisations products
 // are summed, drift and bound are maxima, and method is "mixed" if they
-// differ. With disorder, "realisations" gives the count and, when it is
+// differ. For quantum walks error_bound is at least 2⁻⁵²·‖H‖·t_max (‖H‖
+// by Gershgorin's bound), the phase error double precision cannot avoid at
+// long times; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
+// field "tolerance". "chebyshev" needing more than 10⁹ products (about
+// ‖H‖·t_max) is refused as "too-large", field "method". With disorder, "realisations" gives the count and, when it is
 // above 1, every output X gets "X_err", the standard error of the mean
 // (populations_err, polya_err, average_err, correlations_err,
 // local_exponent_err); regimes are fitted per realisation and averaged
@@ -149,7 +154,8 @@ package walk
 // # Series and spectrum jobs
 //
 // {"series": {"times", "values", "errors"?}, "report": ["regimes"], "fit":
-// {"from", "to", "segments"}} runs the regime analysis on a given curve;
+// {"from", "to", "segments"}} runs the regime analysis on a given curve (a
+// "quantity" in fit, as in a walk job's fit object, is checked and ignored);
 // times strictly increasing and positive, values positive and finite, at
 // least 2 points (the fit itself needs 4 per segment); errors name
 // "series.values[k]" etc. A spectrum job has "spectrum" and a lattice

@@ -239,6 +239,7 @@ func (j *Job) runWalk(ctx context.Context, log io.Writer) (*Response, error) {
 	if err := j.combine(resp, traces); err != nil {
 		return nil, err
 	}
+	j.roundingFloor(resp, g)
 	return resp, nil
 }
 

@@ -67,6 +67,9 @@ func (j *Job) checkSize(g *lattice.Graph) error {
 			Msg: fmt.Sprintf("\"correlations\" would return %d values (%d times × %d² site pairs); the limit is %d values",
 				int64(n)*int64(n)*int64(T), T, n, MaxPopulationValues)}
 	}
+	if err := j.checkChebyshevTime(g); err != nil {
+		return err
+	}
 	lim := fault.MemoryLimit()
 	if j.Method == Auto {
 		// Auto may choose Krylov, whose basis of krylovDim+1 vectors
