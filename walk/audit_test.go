@@ -255,6 +255,23 @@ func TestAuditErrors(t *testing.T) {
 		{`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,-3,4,5]},"report":["regimes"]}`, "s2", "invalid", "series.values[2]"},
 		{`{"id":"s3","series":{"times":[0,2,3,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s3", "invalid", "series.times[0]"},
 		{`{"id":"x1","lattice":{"kind":"hypercube","dimension":26},"start":{"site":0},"times":[1]}`, "x1", "too-large", ""},
+		// Sizes beyond any machine are too-large with the estimate, not
+		// invalid (contract: too-large names the estimate).
+		{`{"id":"x2","lattice":{"kind":"gasket","generation":20},"start":{"site":0},"times":[1]}`, "x2", "too-large", "lattice.generation"},
+		{`{"id":"x3","lattice":{"kind":"chain","sites":1000000000000},"start":{"site":0},"times":[1]}`, "x3", "too-large", "lattice.sites"},
+		{`{"id":"x4","lattice":{"kind":"square","width":100000,"height":100000},"start":{"site":0},"times":[1]}`, "x4", "too-large", ""},
+		{`{"id":"x5","lattice":{"kind":"square","width":1000,"height":1000},"start":{"site":2},"times":[1,2,3,4,5],"report":["populations"]}`, "x5", "too-large", ""},
+		// A negative rate makes −L non-stochastic (populations outside [0,1]).
+		{`{"id":"c1","lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-1],[1,2]]},"dynamics":"classical","start":{"site":0},"times":[1]}`, "c1", "invalid", "lattice.bonds[0]"},
+		{`{"id":"c2",` + ch + `,` + ok + `,"dynamics":"classical","hopping":-1}`, "c2", "invalid", "hopping"},
+		{`{"id":"r1",` + ch + `,` + ok + `,"remove":[2,2]}`, "r1", "invalid", "remove[1]"},
+		{`{"id":"r2",` + ch + `,` + ok + `,"remove":[0,1,2,3,4]}`, "r2", "invalid", "remove"},
+		{`{"id":"r3",` + ch + `,` + ok + `,"remove":[7]}`, "r3", "invalid", "remove[0]"},
+		{`{"id":"f1",` + ch + `,"start":{"site":2},"times":[1],"report":["regimes"]}`, "f1", "invalid", "times"},
+		{`{"id":"f2",` + ch + `,"start":{"site":2},"times":[1,2,3,4,5],"report":["regimes"],"fit":{"from":10,"to":20}}`, "f2", "invalid", "fit"},
+		{`{"id":"d1",` + ch + `,"start":{"site":2},"times":[1],"times":[2]}`, "d1", "invalid", "times"},
+		{`{"id":"a1","lattice":{"kind":"square","width":100,"height":100},"start":{"site":0},"times":[1],"report":["average"]}`, "a1", "too-large", ""},
+		{`{"id":"a2","lattice":{"kind":"square","width":100,"height":100},"start":{"site":0},"times":[1],"method":"exact"}`, "a2", "too-large", ""},
 	}
 	lines := make([]any, len(cases))
 	for i, c := range cases {
@@ -294,6 +311,11 @@ func TestAuditTransport(t *testing.T) {
 	for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
 		assert.True(t, strings.HasPrefix(l, "{") && strings.HasSuffix(l, "}"), "stdout holds JSON objects only: %q", l)
 	}
+
+	// A UTF-8 byte-order mark before the first request is skipped.
+	res = auditLines(t, "\ufeff"+fmt.Sprintf(good, "bom"))
+	assert.Equal(t, "bom", res[0]["id"])
+	assert.Nil(t, res[0]["error"])
 
 	// Leading/trailing blanks and a non-ASCII id are fine; the id comes back
 	// unchanged.
