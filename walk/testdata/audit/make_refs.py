@@ -439,6 +439,29 @@ for pt in ((3.1, 0.0), (2.9, 1.8), (5.2, 2.5), (100, -50)):
     walk_case("gasket-g3-near%g,%g" % pt, {"kind": "gasket", "generation": 3}, pos, bonds, s, tt,
               start={"near": list(pt)}, report=("msd", "return", "spread"))
 
+# classical walks on moderate fractals and a larger triangle (scipy expm_multiply, real generator)
+def sparse_classical_pops(n, bonds, gamma, s, times):
+    W = csr_matrix((np.array([w for a, b, w in bonds] * 2), ([a for a, b, w in bonds] + [b for a, b, w in bonds],
+                   [b for a, b, w in bonds] + [a for a, b, w in bonds])), shape=(n, n))
+    Lp = csr_matrix(np.diag(np.asarray(W.sum(1)).ravel())) - W
+    e = np.zeros(n); e[s] = 1
+    return np.array([expm_multiply(-gamma * Lp * t, e) if t > 0 else e for t in times])
+
+
+for lat, (pos, bonds), pt in (({"kind": "gasket", "generation": 6}, gasket(6), (0.0, 0.0)),
+                              ({"kind": "gasket", "generation": 6}, gasket(6), (32.0, 0.0)),
+                              ({"kind": "carpet", "generation": 3, "variant": "cells"}, carpet_cells(3), (13.5, 4.5)),
+                              ({"kind": "triangle", "side": 20}, triangle(20), (7.0, 0.0))):
+    s = nearest(pos, pt)
+    ttc = [0.5, 3.0, 20.0]
+    for dyn in ("classical", "quantum"):
+        P = sparse_classical_pops(len(pos), bonds, 0.8, s, ttc) if dyn == "classical" else \
+            sparse_quantum_pops(len(pos), [(a, b, 0.8 * w) for a, b, w in bonds], 1.0, s, ttc)
+        walk_case("%s-%s-near%g,%g-%s-expm_multiply" % (lat["kind"], list(lat.values())[1], pt[0], pt[1], dyn), lat, pos,
+                  bonds, s, ttc, gamma=0.8, dyn=dyn, start={"near": [pt[0] + 0.01, pt[1] + 0.01]}, P=P, atol=1e-6,
+                  report=("msd", "return", "spread", "ipr", "entropy"),
+                  source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
+
 # 7. times edge cases
 pos, bonds = chain(6)
 walk_case("times-zero-repeated", {"kind": "chain", "sites": 6}, pos, bonds, 1, [0.0, 0.0, 0.5, 0.5, 2.0],
