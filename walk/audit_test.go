@@ -714,3 +714,42 @@ func TestAuditSeriesCrossover(t *testing.T) {
 		assert.InDelta(t, 2-x/(1+x), le[i], 0.01, "t = %v", x)
 	}
 }
+
+// TestAuditBoxDimension checks box_dimension on sets with a known
+// dimension: a chain (1), a square patch (2), the Sierpinski carpet
+// (ln 8/ln 3, Mandelbrot 1982, from memory) and the gasket (ln 3/ln 2, same
+// source); the gasket's finite-size bias is allowed up to 0.05 (audit: the
+// fit includes boxes comparable to the extent).
+func TestAuditBoxDimension(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"chain","lattice":{"kind":"chain","sites":1000},"spectrum":{"box_dimension":true}}`,
+		`{"id":"square","lattice":{"kind":"square","width":64,"height":64},"spectrum":{"box_dimension":true}}`,
+		`{"id":"carpet","lattice":{"kind":"carpet","generation":4,"variant":"cells"},"spectrum":{"box_dimension":true}}`,
+		`{"id":"gasket","lattice":{"kind":"gasket","generation":8},"spectrum":{"box_dimension":true}}`,
+	)
+	want := []struct{ d, tol float64 }{{1, 0.02}, {2, 0.02}, {math.Log(8) / math.Log(3), 0.02}, {math.Log(3) / math.Log(2), 0.05}}
+	for i, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		b := r["box_dimension"].(map[string]any)
+		for _, k := range []string{"dimension", "error", "smallest", "largest"} {
+			assert.Contains(t, b, k)
+		}
+		assert.InDelta(t, want[i].d, b["dimension"], want[i].tol, "%s", r["id"])
+		assert.Less(t, b["smallest"], b["largest"])
+	}
+}
+
+// TestAuditNumerical checks that an overflowing propagation is answered
+// with code "numerical" and no partial result (contract: never NaN).
+func TestAuditNumerical(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"o1","lattice":{"kind":"chain","sites":5},"hopping":1e300,"start":{"site":2},"times":[1e10]}`,
+		`{"id":"o2","lattice":{"kind":"graph","sites":2,"bonds":[[0,1,1e200]],"positions":[[0],[1e200]]},"start":{"site":0},"times":[1],"report":["msd","spread"]}`,
+	)
+	for _, r := range res {
+		code, _ := auditErr(t, r)
+		assert.Equal(t, "numerical", code, "%v", r)
+	}
+	assert.Equal(t, "o1", res[0]["id"])
+	assert.Equal(t, "o2", res[1]["id"])
+}
