@@ -202,9 +202,10 @@ package walk
 // the stream lattice.Realisation(seed, k) = rand.NewPCG(seed, k), so device
 // k depends on (seed, k) alone; remove is applied to each device. Outputs
 // are combined exactly as for disorder: "realisations", means and "X_err"
-// standard errors. MSDs use each device's jittered positions. Default n:
-// 16 (1 when jitter and detuning are 0; in a plan job the planner's
-// default).
+// standard errors. Sites keep their designed positions (what a
+// measurement knows; walk/plan does the same), so MSD and spread are about
+// the design. Default n: 16 (1 when jitter and detuning are 0; in a plan
+// job the planner's default).
 //
 // Plan jobs (walk/plan.Make; the program must import walk/plan, which
 // registers itself with RegisterPlanner; the bridge binary does): {"lattice":

@@ -341,8 +341,8 @@ func (r *Response) finiteLab() string {
 	return ""
 }
 
-// fabricate returns fabricated device k of the job's positions lattice,
-// with remove applied.
+// fabricate returns fabricated device k of the job's positions lattice at
+// the designed positions, with remove applied.
 func (j *Job) fabricate(k int) (*lattice.Graph, error) {
 	s := j.Lattice
 	law, err := s.Law.law()
@@ -359,6 +359,23 @@ func (j *Job) fabricate(k int) (*lattice.Graph, error) {
 			return nil, fe
 		}
 		return nil, fault.New("fabrication", "realisation %d cannot be built: %s %s", k, fe.Field, fe.Msg)
+	}
+	// The device's couplings come from its jittered positions, but its
+	// sites are reported at the designed ones: a measurement knows only
+	// those (measurement jobs and walk/plan reduce with them too).
+	bonds := make([]lattice.Bond, g.NumBonds())
+	for b := range bonds {
+		bonds[b] = g.Bond(b)
+	}
+	var onsite []float64
+	if s.Detuning != nil || j.Fabrication.Detuning > 0 {
+		onsite = make([]float64, g.Len())
+		for i := range onsite {
+			onsite[i] = g.Onsite(i)
+		}
+	}
+	if g, err = lattice.New(g.Len(), s.Dim, s.Positions, bonds, onsite); err != nil {
+		return nil, fault.New("fabrication", "realisation %d cannot be built: %v", k, err)
 	}
 	if j.Remove != nil {
 		if g, _, err = g.Remove(j.Remove); err != nil {

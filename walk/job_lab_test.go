@@ -257,10 +257,10 @@ func TestLabFabricationReproducible(t *testing.T) {
 		psi0 := make([]complex128, g.Len())
 		psi0[10] = 1
 		p := make([]float64, g.Len())
-		origin := g.Pos(nil, 10)
+		origin := pos[20:22] // MSD about the designed positions
 		_, err = walk.QuantumWalk(context.Background(), g, 1, psi0, times, walk.Settings{Tolerance: 1e-10, Workers: 1},
 			func(i int, _ float64, psi []complex128) error {
-				mean[i] += observables.MSD(observables.Probabilities(p, psi), g.Coords(), 2, origin) / 5
+				mean[i] += observables.MSD(observables.Probabilities(p, psi), pos, 2, origin) / 5
 				return nil
 			})
 		require.NoError(t, err)
@@ -317,6 +317,16 @@ func TestLabPlanJob(t *testing.T) {
 	assert.Equal(t, want.Grid, got.Grid)
 	assert.Equal(t, want.MSD, got.MSD)
 	assert.Equal(t, want.Samples, got.Samples)
+
+	// A walk job with the same fabrication at the plan's grid sees the same
+	// devices (stream k for device k) and reports the MSD about the same
+	// designed positions.
+	w := labServe(t, fmt.Sprintf(`{"lattice":%s,"start":{"site":7},"times":%s,"fabrication":{"jitter":0.2,"realisations":4,"seed":2}}`, lat, list(got.Grid)))[0]
+	labOK(t, w)
+	for k, m := range labFloats(t, w["msd"]) {
+		// Both propagations meet the 1e-10 state tolerance.
+		assert.InEpsilon(t, got.MSD[k], m, 1e-7, "z=%v", got.Grid[k])
+	}
 
 	res := labServe(t,
 		fmt.Sprintf(`{"lattice":%s,"start":{"site":7},"plan":{"max_length":12,"samples":2}}`, lat),
