@@ -5,9 +5,10 @@ package sparse
 // lattice (site x + w·y, columns ascending: i−w, i−1, i+1, i+w where they
 // exist; h = 1 is the chain) needs no index arrays at all: the row sums read
 // the four neighbours directly, and the Chebyshev step is fused row by row.
-// On a 1000×1000 lattice this runs the step about 1.3–1.6× faster than the
-// CSR loop (interleaved runs, 1 and 2 workers, on a loaded 2-core machine;
-// BenchmarkChebNextSquareGrid1000 against BenchmarkChebNextSquare1000). The
+// On a 1000×1000 lattice this runs the step about 1.5× faster than the CSR
+// loop (paired runs, median ratio 1.47 for 1 and 2 workers, on a loaded
+// 2-core machine; benchdata/RESULTS.md; BenchmarkChebNextSquareGrid1000
+// against BenchmarkChebNextSquare1000). The
 // sums are taken in the CSR's column order, so the results are the same bits
 // as the CSR path.
 
