@@ -250,8 +250,15 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 	}
 	n := hi - lo
 	if n < s.MinPoints {
-		return nil, fault.New("times", "the fit window [%v, %v] must hold at least %d points (fit.min_points); got %d",
-			s.From, s.To, s.MinPoints, n)
+		from, to := s.From, s.To
+		if from == 0 {
+			from = times[0]
+		}
+		if to == 0 {
+			to = times[len(times)-1]
+		}
+		return nil, fault.New("times", "in the window [%v, %v] must number at least %d (fit.min_points); got %d",
+			from, to, s.MinPoints, n)
 	}
 	t := times[lo:hi]
 	v := values[lo:hi]

@@ -232,8 +232,8 @@ func TestFitRegimesErrors(t *testing.T) {
 		{ts, ys, nil, RegimeSettings{MinPoints: 2}, "fit.min_points", "at least 3"},
 		{ts, ys, nil, RegimeSettings{From: 4, To: 3}, "fit.to", "at least fit.from"},
 		{ts, ys, nil, RegimeSettings{From: nan}, "fit.from", "NaN"},
-		{ts, ys, nil, RegimeSettings{From: 4.5}, "times", "at least 4 points"},
-		{ts[:3], ys[:3], nil, RegimeSettings{}, "times", "at least 4 points"},
+		{ts, ys, nil, RegimeSettings{From: 4.5}, "times", "in the window [4.5, 6] must number at least 4"},
+		{ts[:3], ys[:3], nil, RegimeSettings{}, "times", "in the window [1, 3] must number at least 4"},
 	} {
 		f, err := FitRegimes(c.ts, c.ys, c.es, c.s)
 		if c.field == "" {

@@ -242,3 +242,15 @@ func TestFixSeriesFitQuantityAndLogGrid(t *testing.T) {
 	assert.Equal(t, "fit.quantity", field)
 	assert.Equal(t, []any{0.001, 0.01, 0.1, 1.0, 10.0, 100.0, 1000.0}, res[2]["times"])
 }
+
+func TestFixClassicalOnsiteDisorderRefused(t *testing.T) {
+	// −L = −(D − W) has no on-site term: on-site disorder under classical
+	// dynamics would be a silent no-op (audit 17:48), so it is refused.
+	res := fixServe(t,
+		`{"id":"b","lattice":{"kind":"chain","sites":30},"dynamics":"classical","start":{"site":15},"times":[1,3],"disorder":{"onsite":5,"realisations":3,"seed":1}}`,
+		`{"id":"q","lattice":{"kind":"chain","sites":30},"start":{"site":15},"times":[1,3],"disorder":{"onsite":5,"realisations":3,"seed":1}}`)
+	code, field, _ := fixErr(res[0])
+	assert.Equal(t, "invalid", code, "%v", res[0])
+	assert.Equal(t, "disorder.onsite", field)
+	assert.Nil(t, res[1]["error"], "quantum on-site disorder stays accepted: %v", res[1])
+}

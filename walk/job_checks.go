@@ -285,13 +285,19 @@ func checkRemove(remove []int, n int) error {
 	return nil
 }
 
-// checkClassicalBonds refuses a negative listed bond weight under classical
-// dynamics: the weight is a rate, and a negative one makes −L
-// non-stochastic (populations leave [0, 1]). A zero weight is accepted: a
-// bond of rate 0 carries no transfer, as if it were not listed.
-func (job *Job) checkClassicalBonds() error {
+// checkClassical refuses what classical dynamics cannot honour: a negative
+// listed bond weight (the weight is a rate, and a negative one makes −L
+// non-stochastic, populations leaving [0, 1]) and on-site disorder (−L,
+// L = D − W, has no on-site term, so it would be a silent no-op). A zero
+// weight is accepted: a bond of rate 0 carries no transfer, as if it were
+// not listed. Graph onsite energies are accepted and documented as unused
+// (a graph is often shared between quantum and classical jobs).
+func (job *Job) checkClassical() error {
 	if job.Dynamics != Classical || job.Lattice == nil {
 		return nil
+	}
+	if d := job.Disorder; d != nil && d.Onsite != 0 {
+		return fault.New("disorder.onsite", "is not used by classical dynamics (the generator −L, L = D − W, has no on-site term); got %v", d.Onsite)
 	}
 	for k, b := range job.Lattice.Bonds {
 		if b.W < 0 {

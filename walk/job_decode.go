@@ -168,10 +168,7 @@ func (job *Job) decodeWalkJob(o *object) error {
 		if job.Hopping < 0 {
 			return fault.Range("hopping", "non-negative for classical dynamics (it is a rate)", job.Hopping)
 		}
-		if err := job.checkClassicalBonds(); err != nil {
-			return err
-		}
-		if err := job.checkClassicalBonds(); err != nil {
+		if err := job.checkClassical(); err != nil {
 			return err
 		}
 		if job.reports("correlations") {

@@ -74,7 +74,9 @@ package walk
 //	           alone, bit for bit. Disorder jobs run each realisation on one
 //	           thread and realisations in parallel (GOMAXPROCS), combined in
 //	           realisation order. Classical dynamics refuses bond disorder
-//	           that can make a rate negative (gauss, or box with V > 2).
+//	           that can make a rate negative (gauss, or box with V > 2),
+//	           and on-site disorder ("disorder.onsite": −L has no on-site
+//	           term, so it would be a silent no-op).
 //	fit        {"quantity": "msd"|"spread", "from": t1, "to": t2,
 //	           "segments": 1…8}; default msd, all reported t > 0, 4
 //	window     extension: {"to": T, "samples": m (default 200)} turns the

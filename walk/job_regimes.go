@@ -59,7 +59,7 @@ func fitError(err error, series bool) error {
 	case !series && c.Field == "times":
 		// The fit window (checked first by enoughPoints): a user input.
 		c.Kind, c.Field = fault.Invalid, "fit"
-		c.Msg = "the window holds too few usable times for the regime analysis: " + c.Msg
+		c.Msg = "(its usable times t > 0) " + c.Msg
 	case !series && (c.Field == "values" || c.Field == "errors"):
 		c.Kind, c.Field = fault.Numerical, "fit"
 	case c.Field == "fit.min_points":
