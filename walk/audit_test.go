@@ -264,6 +264,8 @@ func TestAuditErrors(t *testing.T) {
 		// A negative rate makes −L non-stochastic (populations outside [0,1]).
 		{`{"id":"c1","lattice":{"kind":"graph","sites":3,"bonds":[[0,1,-1],[1,2]]},"dynamics":"classical","start":{"site":0},"times":[1]}`, "c1", "invalid", "lattice.bonds[0]"},
 		{`{"id":"c2",` + ch + `,` + ok + `,"dynamics":"classical","hopping":-1}`, "c2", "invalid", "hopping"},
+		// Classical −L has no on-site term: on-site disorder would be a silent no-op.
+		{`{"id":"c3",` + ch + `,` + ok + `,"dynamics":"classical","disorder":{"onsite":5,"realisations":3,"seed":1}}`, "c3", "invalid", "disorder.onsite"},
 		{`{"id":"r1",` + ch + `,` + ok + `,"remove":[2,2]}`, "r1", "invalid", "remove[1]"},
 		{`{"id":"r2",` + ch + `,` + ok + `,"remove":[0,1,2,3,4]}`, "r2", "invalid", "remove"},
 		{`{"id":"r3",` + ch + `,` + ok + `,"remove":[7]}`, "r3", "invalid", "remove[0]"},
