@@ -624,5 +624,43 @@ for lat, (pos, bonds) in (
         {"sites": len(pos), "bonds": len(bonds), "msd": [0.0], "return": [1.0]}, 0,
         "contract site/bond counts; builders in make_refs.py")
 
+# 12. seeded random sweep: weighted graphs (negative weights for quantum),
+# on-site energies, 1-4D positions, hoppings, methods and tolerances vs
+# scipy.linalg.expm; compared within max(10*tolerance, 1e-9) (the
+# tolerance is a 2-norm bound on the state, common practice margin)
+srng = np.random.default_rng(777)
+for c in range(60):
+    n = int(srng.integers(2, 30))
+    m = int(srng.integers(1, n * (n - 1) // 2 + 1))
+    pairs = set()
+    while len(pairs) < m:
+        a, b = sorted(srng.choice(n, 2, replace=False).tolist()); pairs.add((a, b))
+    pairs = sorted(pairs)
+    dyn = "classical" if srng.random() < 0.4 else "quantum"
+    w = srng.uniform(0.1, 3, len(pairs)) if dyn == "classical" else srng.uniform(-3, 3, len(pairs))
+    dim = int(srng.integers(1, 5))
+    pos = [tuple(float(v) for v in srng.uniform(-5, 5, dim)) for _ in range(n)]
+    ons = srng.uniform(-2, 2, n) if dyn == "quantum" and srng.random() < 0.7 else None
+    gam = float(srng.choice([0.3, 1.0, 2.5]))
+    nt = int(srng.integers(1, 6))
+    ts = sorted(np.round(srng.exponential(3, nt), 6).tolist())
+    if srng.random() < 0.2:
+        ts = [0.0] + ts
+    deg = np.zeros(n)
+    for a, b in pairs:
+        deg[a] += 1; deg[b] += 1
+    s = int(srng.choice(np.flatnonzero(deg > 0)))  # an isolated start with on-site energy trips polya (audit finding)
+    method = str(srng.choice(["auto", "exact", "krylov", "chebyshev"]))
+    tol = float(srng.choice([1e-10, 1e-12, 1e-8, 1e-6]))
+    bonds = [(a, b, float(x)) for (a, b), x in zip(pairs, w)]
+    lat = {"kind": "graph", "sites": n, "bonds": [[a, b, x] for a, b, x in bonds], "positions": [list(p) for p in pos]}
+    if ons is not None:
+        lat["onsite"] = [float(e) for e in ons]
+    P = quantum_pops_expm(n, bonds, ons, gam, s, ts) if dyn == "quantum" else classical_pops(n, bonds, gam, s, ts)
+    walk_case("sweep%02d-%s-%s" % (c, dyn, method), lat, pos, bonds, s, ts, gamma=gam, dyn=dyn, onsite=ons,
+              method=method, tol=tol, P=P, atol=max(10 * tol, 1e-9),
+              report=("msd", "return", "populations", "spread", "ipr", "entropy", "polya"),
+              source="scipy.linalg.expm %s, seeded sweep (numpy default_rng(777))" % scipy.__version__)
+
 json.dump(dict(generator="make_refs.py", numpy=np.__version__, scipy=scipy.__version__, cases=cases),
           sys.stdout, indent=None, separators=(",", ":"))
