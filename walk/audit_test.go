@@ -13,6 +13,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
@@ -754,4 +755,46 @@ func TestAuditNumerical(t *testing.T) {
 	}
 	assert.Equal(t, "o1", res[0]["id"])
 	assert.Equal(t, "o2", res[1]["id"])
+}
+
+// TestAuditConcurrentServe runs several Serve loops at once (a service
+// serving many connections) and checks each answers exactly like a lone
+// loop, seconds aside.
+func TestAuditConcurrentServe(t *testing.T) {
+	in := strings.Join([]string{
+		`{"id":"a","lattice":{"kind":"gasket","generation":4},"start":{"near":[0,0]},"times":[0.5,1,2],"report":["msd","return","spread","ipr","entropy","polya"]}`,
+		`{"id":"b","lattice":{"kind":"square","width":8,"height":8},"start":{"site":27},"times":[1,2],"disorder":{"onsite":1,"bond":0.2,"realisations":6,"seed":9},"report":["msd","return","populations"]}`,
+		`{"id":"c","lattice":{"kind":"chain","sites":50},"dynamics":"classical","start":{"site":25},"times":{"from":0.1,"to":10,"count":12,"spacing":"log"},"report":["regimes"]}`,
+		`{"id":"d","lattice":{"kind":"gasket","generation":3},"spectrum":{"eigenvalues":true,"ratio":true,"dos":{"bins":20,"method":"kpm","moments":64}}}`,
+		`bad line`,
+	}, "\n") + "\n"
+	strip := func(out string) []string {
+		var res []string
+		for _, l := range strings.Split(strings.TrimSpace(out), "\n") {
+			var m map[string]any
+			require.NoError(t, json.Unmarshal([]byte(l), &m))
+			if d, ok := m["diagnostics"].(map[string]any); ok {
+				delete(d, "seconds")
+			}
+			p, _ := json.Marshal(m)
+			res = append(res, string(p))
+		}
+		return res
+	}
+	_, lone, _ := auditServe(t, in)
+	want := strip(lone)
+	const loops = 4
+	outs := make([]bytes.Buffer, loops)
+	errs := make(chan error, loops)
+	for i := 0; i < loops; i++ {
+		go func(i int) {
+			errs <- walk.Serve(context.Background(), strings.NewReader(in), &outs[i], io.Discard)
+		}(i)
+	}
+	for i := 0; i < loops; i++ {
+		require.NoError(t, <-errs)
+	}
+	for i := range outs {
+		assert.Equal(t, want, strip(outs[i].String()), "loop %d", i)
+	}
 }
