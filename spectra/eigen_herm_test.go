@@ -55,7 +55,7 @@ func TestHermEigenKnownSpectra(t *testing.T) {
 		}
 		var want []float64
 		for k := d; k >= 0; k-- {
-			for range binom(d, k) {
+			for range eigBinom(d, k) {
 				want = append(want, float64(d-2*k))
 			}
 		}

@@ -32,7 +32,7 @@ func eigCycle(n int, closed bool) []float64 {
 	return a
 }
 
-func binom(n, k int) int {
+func eigBinom(n, k int) int {
 	r := 1
 	for i := 1; i <= k; i++ {
 		r = r * (n - k + i) / i
@@ -53,7 +53,7 @@ func TestSymEigenKnownSpectra(t *testing.T) {
 	for _, d := range []int{3, 6, 8} {
 		var want []float64
 		for k := d; k >= 0; k-- {
-			for range binom(d, k) {
+			for range eigBinom(d, k) {
 				want = append(want, float64(d-2*k))
 			}
 		}
@@ -253,7 +253,7 @@ func TestSecularRootTinyWeights(t *testing.T) {
 			// bound 1e-12·(1 + ρΣ|w_j²/δ_j|) is common practice.
 			f, sa := 1.0, 1.0
 			for j := range dl {
-				v := rho * w[j] * w[j] / delta(dl, j, o, tt)
+				v := rho * w[j] * w[j] / dcDelta(dl, j, o, tt)
 				f += v
 				sa += math.Abs(v)
 			}

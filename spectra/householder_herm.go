@@ -59,9 +59,9 @@ func herTridiag(ar, ai []float64, n int, d, e, taur, taui []float64) {
 				copy(row(y1, 3), ui)
 				// Imaginary part: [Wr; −Wi; Vr; −Vi]ᵀ·[Vi; Vr; Wi; Wr].
 				copy(row(xp, 0), ur)
-				neg(row(xp, 1), ui)
+				herNeg(row(xp, 1), ui)
 				copy(row(xp, 2), vr)
-				neg(row(xp, 3), vi)
+				herNeg(row(xp, 3), vi)
 				copy(row(y2, 0), vi)
 				copy(row(y2, 1), vr)
 				copy(row(y2, 2), ui)
@@ -85,7 +85,7 @@ func herTridiag(ar, ai []float64, n int, d, e, taur, taui []float64) {
 	}
 }
 
-func neg(dst, src []float64) {
+func herNeg(dst, src []float64) {
 	for i, v := range src {
 		dst[i] = -v
 	}

@@ -210,7 +210,7 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 		for i := range ord {
 			ord[i] = i
 		}
-		slices.SortStableFunc(ord, func(a, b int) int { return cmpFloat(dl[a], dl[b]) })
+		slices.SortStableFunc(ord, func(a, b int) int { return dcCmp(dl[a], dl[b]) })
 		k2, d2, w2 := make([]int, k), make([]float64, k), make([]float64, k)
 		for t, o := range ord {
 			k2[t], d2[t], w2[t] = keep[o], dl[o], w[o]
@@ -234,12 +234,12 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 	// ẑ_i² = −∏_j δ_i(λ_j) / ∏_{j≠i} (dl_i − dl_j), δ_i(λ_j) = dl_i − λ_j.
 	zh := make([]float64, k)
 	for i := 0; i < k; i++ {
-		p := delta(dl, i, org[i], tau[i])
+		p := dcDelta(dl, i, org[i], tau[i])
 		for j := 0; j < k; j++ {
 			if j == i {
 				continue
 			}
-			p *= delta(dl, i, org[j], tau[j]) / (dl[i] - dl[j])
+			p *= dcDelta(dl, i, org[j], tau[j]) / (dl[i] - dl[j])
 		}
 		zh[i] = math.Copysign(math.Sqrt(math.Max(-p, 0)), w[i])
 	}
@@ -305,7 +305,7 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 		for j := j0; j < j0+jb; j++ {
 			nrm := 0.0
 			for i := 0; i < k; i++ {
-				v := zh[i] / delta(dl, i, org[j], tau[j])
+				v := zh[i] / dcDelta(dl, i, org[j], tau[j])
 				sb[pos[i]*jb+j-j0] = v
 				nrm += v * v
 			}
@@ -342,7 +342,7 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 	for t := range defl {
 		all = append(all, pair{d[defl[t]], k + t})
 	}
-	slices.SortStableFunc(all, func(a, b pair) int { return cmpFloat(a.v, b.v) })
+	slices.SortStableFunc(all, func(a, b pair) int { return dcCmp(a.v, b.v) })
 	for c, p := range all {
 		d[c] = p.v
 	}
@@ -362,7 +362,7 @@ func (ws *dcWork) merge(n, m int, d, q []float64, ldq int, rho, sgn float64) boo
 	return true
 }
 
-func cmpFloat(a, b float64) int {
+func dcCmp(a, b float64) int {
 	switch {
 	case a < b:
 		return -1
@@ -372,7 +372,7 @@ func cmpFloat(a, b float64) int {
 	return 0
 }
 
-// delta returns dl[i] − (dl[o] + t) computed as (dl[i] − dl[o]) − t.
-func delta(dl []float64, i, o int, t float64) float64 {
+// dcDelta returns dl[i] − (dl[o] + t) computed as (dl[i] − dl[o]) − t.
+func dcDelta(dl []float64, i, o int, t float64) float64 {
 	return (dl[i] - dl[o]) - t
 }
