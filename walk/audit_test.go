@@ -219,6 +219,11 @@ func TestAuditErrors(t *testing.T) {
 		{`123`, "", "malformed", ""},
 		{`{"id":"tr",` + ch + `,` + ok + `} x`, "", "malformed", ""},
 		{`{}`, "", "invalid", "lattice"},
+		// The id is echoed even when it comes after the offending field.
+		{`{"lattice":{"kind":"foo"},"id":"late1"}`, "late1", "invalid", "lattice.kind"},
+		{`{"bogus":1,"id":"late2"}`, "late2", "unknown-field", "bogus"},
+		{`{"times":"x",` + ch + `,"start":{"site":0},"id":"late3"}`, "late3", "invalid", "times"},
+		{`{` + ch + `,` + ch + `,"id":"late4"}`, "late4", "invalid", "lattice"},
 		{`{"id":"nan",` + ch + `,` + `"start":{"site":2},"times":[NaN]}`, "", "malformed", ""},
 		{`{"id":"inf",` + ch + `,` + ok + `,"hopping":Infinity}`, "", "malformed", ""},
 		{`{"id":"e1",` + ch + `,` + ok + `,"hoping":1}`, "e1", "unknown-field", "hoping"},
