@@ -2,7 +2,9 @@ package walk
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math"
 
@@ -417,4 +419,42 @@ func (j *Job) checkChebyshevTime(g *lattice.Graph) error {
 	return &fault.Error{Kind: fault.TooLarge, Field: "method",
 		Msg: fmt.Sprintf("\"chebyshev\" needs about %.3g matrix–vector products to reach t = %v (‖H‖·t with ‖H‖ ≤ %.4g), about %.3g multiply-adds, beyond the limit of %.0e products: use \"exact\" (small graphs) or \"auto\"",
 			p, j.Times[len(j.Times)-1], j.hamiltonianNorm(g), work, maxChebyshevProducts)}
+}
+
+// negligibleTimes returns times with every t at which the propagator is the
+// identity to double precision (‖H‖·t < 2⁻⁵³, ‖H‖ by hamiltonianNorm)
+// replaced by 0, so that no propagation method is asked to resolve a time
+// step below rounding (a series expansion in ‖H‖t can underflow there).
+// The response still echoes the requested times. times itself is not
+// modified; it is returned unchanged when no time is negligible.
+func (j *Job) negligibleTimes(g *lattice.Graph, times []float64) []float64 {
+	norm := j.hamiltonianNorm(g)
+	var out []float64
+	for k, t := range times {
+		if t > 0 && norm*t < 0x1p-53 {
+			if out == nil {
+				out = append([]float64(nil), times...)
+			}
+			out[k] = 0
+		}
+	}
+	if out == nil {
+		return times
+	}
+	return out
+}
+
+// autoRetry reports whether a propagation under method "auto" that ended
+// with err should be run once more with Krylov: a numerical failure (not an
+// input error, not a cancellation) of the method Auto chose, typically a
+// Chebyshev series at a time step far below the spectral scale.
+func autoRetry(ctx context.Context, set Settings, err error) bool {
+	if err == nil || set.Method != Auto || ctx.Err() != nil {
+		return false
+	}
+	var fe *fault.Error
+	if errors.As(err, &fe) {
+		return false
+	}
+	return !errors.Is(err, context.Canceled) && !errors.Is(err, context.DeadlineExceeded)
 }

@@ -146,8 +146,12 @@ package walk
 // by Gershgorin's bound), the phase error double precision cannot avoid at
 // long times; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
 // field "tolerance". "chebyshev" needing more than 10⁹ products (about
-// ‖H‖·t_max) is refused as "too-large", field "method". With disorder, "realisations" gives the count and, when it is
-// above 1, every output X gets "X_err", the standard error of the mean
+// ‖H‖·t_max) is refused as "too-large", field "method". A reported time
+// with ‖H‖·t < 2⁻⁵³ is propagated as t = 0 (the propagator is the identity
+// to rounding; the response echoes the time as given), and when the method
+// "auto" chose fails its own check the walk runs once more with "krylov".
+// With disorder, "realisations" gives the count and, when it is above 1,
+// every output X gets "X_err", the standard error of the mean
 // (populations_err, polya_err, average_err, correlations_err,
 // local_exponent_err); regimes are fitted per realisation and averaged
 // (observables.AverageRegimes), so each regime's "error" is the spread over

@@ -324,21 +324,30 @@ func (j *Job) evolve(ctx context.Context, g *lattice.Graph, s0 int, times []floa
 	p := make([]float64, n)
 	var d Diagnostics
 	var err error
-	if j.Dynamics == Classical {
-		p0 := make([]float64, n)
-		p0[s0] = 1
-		d, err = ClassicalWalk(ctx, g, j.Hopping, p0, times, set, func(k int, _ float64, state []complex128) error {
-			for i, a := range state {
-				p[i] = real(a)
-			}
-			return visit(k, p)
-		})
-	} else {
-		psi0 := make([]complex128, n)
-		psi0[s0] = 1
-		d, err = QuantumWalk(ctx, g, j.Hopping, psi0, times, set, func(k int, _ float64, state []complex128) error {
-			return visit(k, observables.Probabilities(p, state))
-		})
+	times = j.negligibleTimes(g, times)
+	for attempt := 0; ; attempt++ {
+		if j.Dynamics == Classical {
+			p0 := make([]float64, n)
+			p0[s0] = 1
+			d, err = ClassicalWalk(ctx, g, j.Hopping, p0, times, set, func(k int, _ float64, state []complex128) error {
+				for i, a := range state {
+					p[i] = real(a)
+				}
+				return visit(k, p)
+			})
+		} else {
+			psi0 := make([]complex128, n)
+			psi0[s0] = 1
+			d, err = QuantumWalk(ctx, g, j.Hopping, psi0, times, set, func(k int, _ float64, state []complex128) error {
+				return visit(k, observables.Probabilities(p, state))
+			})
+		}
+		if attempt > 0 || !autoRetry(ctx, set, err) {
+			break
+		}
+		// Auto's choice failed its own check: the whole walk again with
+		// Krylov (every reported time is visited again and overwritten).
+		set.Method = Krylov
 	}
 	if err != nil {
 		return d, propagationError(err)
