@@ -62,26 +62,29 @@ func HemvSplit(m int, ar, ai []float64, lda int, xr, xi, yr, yi, work []float64)
 //	y[r] += H[r][r]·x[r] + Σ_{c>r} conj(a[r][c])·x[c];  y[c] += a[r][c]·x[r].
 func hemvRows(r0, r1, m int, ar, ai []float64, lda int, xr, xi, yr, yi []float64) {
 	for r := r0; r < r1; r++ {
-		n := m - r - 1
-		rr := ar[r*lda+r+1 : r*lda+m]
-		ri := ai[r*lda+r+1 : r*lda+m]
-		ri = ri[:n]
-		xsr := xr[r+1 : m][:n]
-		xsi := xi[r+1 : m][:n]
-		ysr := yr[r+1 : m][:n]
-		ysi := yi[r+1 : m][:n]
 		sr, si := xr[r], xi[r]
-		var dr, di float64
-		for c, a := range rr {
-			b := ri[c]
-			u, v := xsr[c], xsi[c]
-			dr += a*u + b*v
-			di += a*v - b*u
-			ysr[c] += a*sr - b*si
-			ysi[c] += a*si + b*sr
-		}
+		dr, di := hemvRow(ar[r*lda+r+1:r*lda+m], ai[r*lda+r+1:r*lda+m], xr[r+1:m], xi[r+1:m], yr[r+1:m], yi[r+1:m], sr, si)
 		d := ar[r*lda+r]
 		yr[r] += d*sr + dr
 		yi[r] += d*si + di
 	}
+}
+
+// hemvRowGo is the portable kernel, the reference loop
+//
+//	for c, a := range rr { b := ri[c]
+//		dr += a*xr[c] + b*xi[c]; di += a*xi[c] − b*xr[c]
+//		yr[c] += a*sr − b*si;    yi[c] += a*si + b*sr }
+func hemvRowGo(rr, ri, xr, xi, yr, yi []float64, sr, si float64) (dr, di float64) {
+	n := len(rr)
+	ri, xr, xi, yr, yi = ri[:n], xr[:n], xi[:n], yr[:n], yi[:n]
+	for c, a := range rr {
+		b := ri[c]
+		u, v := xr[c], xi[c]
+		dr += a*u + b*v
+		di += a*v - b*u
+		yr[c] += a*sr - b*si
+		yi[c] += a*si + b*sr
+	}
+	return dr, di
 }

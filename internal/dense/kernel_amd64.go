@@ -96,3 +96,24 @@ func symvRow(row, xs, ys []float64, xi float64, s *float64) {
 		symvRowGo(row[n8:], xs[n8:n], ys[n8:n], xi, s)
 	}
 }
+
+//go:noescape
+func hemvRowAVX(n int, rr, ri, xr, xi, yr, yi *float64, sr, si float64) (dr, di float64)
+
+// hemvRow is the fused Hermitian kernel of hemvRows:
+// (dr + i·di) += Σ conj(a_c)·x_c; y_c += a_c·(sr + i·si), a_c = rr[c] + i·ri[c].
+func hemvRow(rr, ri, xr, xi, yr, yi []float64, sr, si float64) (dr, di float64) {
+	n := len(rr)
+	if !hasAVX2FMA || n < 4 {
+		return hemvRowGo(rr, ri, xr, xi, yr, yi, sr, si)
+	}
+	n4 := n &^ 3
+	_, _, _, _, _ = ri[n-1], xr[n-1], xi[n-1], yr[n-1], yi[n-1]
+	dr, di = hemvRowAVX(n4, &rr[0], &ri[0], &xr[0], &xi[0], &yr[0], &yi[0], sr, si)
+	if n4 < n {
+		r, i := hemvRowGo(rr[n4:], ri[n4:n], xr[n4:n], xi[n4:n], yr[n4:n], yi[n4:n], sr, si)
+		dr += r
+		di += i
+	}
+	return dr, di
+}

@@ -13,4 +13,5 @@ func TestPortableKernels(t *testing.T) {
 	hasAVX2FMA = false
 	TestGemmAgainstLoop(t)
 	TestSymvUpper(t)
+	TestHemvSplit(t)
 }

@@ -10,3 +10,7 @@ func symvRow(row, xs, ys []float64, xi float64, s *float64) { symvRowGo(row, xs,
 var panelWidth = 8
 
 func kern6xN(nr, k int, a, b, c []float64, ldc int) { kern6x8(k, a, b, c, ldc) }
+
+func hemvRow(rr, ri, xr, xi, yr, yi []float64, sr, si float64) (dr, di float64) {
+	return hemvRowGo(rr, ri, xr, xi, yr, yi, sr, si)
+}
