@@ -27,7 +27,8 @@ const hermTol = 1e-10
 // (1981); eigenvectors after Gu & Eisenstat, SIAM J. Matrix Anal. Appl. 16,
 // 172 (1995)) and the blocked back-transformation Q·Z; without vectors,
 // gonum's root-free QL/QR (Dsterf) on T. Cost ≈ 4n³/3 flops for values and
-// about 4n³–5n³ more for vectors, mostly in parallel matrix products; memory
+// 2n³ (back-transformation) plus at most 4n³/3 (merges, less with deflation)
+// more for vectors, mostly in parallel matrix products; memory
 // about 3n² + 512n float64 with vectors (a, the result and the divide-and-conquer
 // workspace), n² + O(n) without.
 //
