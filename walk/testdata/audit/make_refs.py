@@ -96,6 +96,24 @@ def gasket(g):
     return pos, [(a, b, 1.0) for a, b in sorted(bonds)]
 
 
+def gasket_doc_order(g):
+    """the site order documented by lattice.Gasket: recursive, copies
+    bottom-left, bottom-right (without its left corner), top (without its two
+    bottom corners)."""
+    P = [(0.0, 0.0), (1.0, 0.0), (0.5, SQ3 / 2)]
+    for k in range(g):
+        sz = 2.0 ** k
+        B = [(x + sz, y) for x, y in P[1:]]
+        C = [(x + sz / 2, y + sz * SQ3 / 2) for x, y in P if not (abs(y) < 1e-9 and (abs(x) < 1e-9 or abs(x - sz) < 1e-9))]
+        P = P + B + C
+    pos, bonds = gasket(g)
+    key = lambda p: (round(p[0] * 4), round(p[1] / SQ3 * 4))
+    idx = {key(p): i for i, p in enumerate(P)}
+    assert len(idx) == len(pos)
+    perm = [idx[key(p)] for p in pos]  # old index -> documented index
+    return P, sorted((min(perm[a], perm[b]), max(perm[a], perm[b]), w) for a, b, w in bonds)
+
+
 def carpet_kept(g):
     n = 3 ** g
     keep = set()
@@ -112,7 +130,7 @@ def carpet_kept(g):
 
 
 def carpet_cells(g):
-    keep = sorted(carpet_kept(g))
+    keep = sorted(carpet_kept(g), key=lambda c: (c[1], c[0]))  # row-major, documented by lattice.Carpet
     idx = {c: i for i, c in enumerate(keep)}
     pos = [(x + 0.5, y + 0.5) for x, y in keep]
     bonds = []
@@ -130,7 +148,7 @@ def carpet_corners(g):
         c = [(x, y), (x + 1, y), (x + 1, y + 1), (x, y + 1)]
         for k in range(4):
             edges.add(tuple(sorted((c[k], c[(k + 1) % 4]))))
-    pts = sorted({p for e in edges for p in e})
+    pts = sorted({p for e in edges for p in e}, key=lambda c: (c[1], c[0]))  # row-major
     idx = {p: i for i, p in enumerate(pts)}
     return [(float(x), float(y)) for x, y in pts], [(idx[a], idx[b], 1.0) for a, b in sorted(edges)]
 
@@ -452,7 +470,7 @@ for lat, (pos, bonds), pt in (({"kind": "gasket", "generation": 6}, gasket(6), (
                               ({"kind": "gasket", "generation": 6}, gasket(6), (32.0, 0.0)),
                               ({"kind": "carpet", "generation": 3, "variant": "cells"}, carpet_cells(3), (13.5, 4.5)),
                               ({"kind": "triangle", "side": 20}, triangle(20), (7.0, 0.0))):
-    s = nearest(pos, pt)
+    s = nearest(pos, (pt[0] + 0.01, pt[1] + 0.01))
     ttc = [0.5, 3.0, 20.0]
     for dyn in ("classical", "quantum"):
         P = sparse_classical_pops(len(pos), bonds, 0.8, s, ttc) if dyn == "classical" else \
@@ -461,6 +479,18 @@ for lat, (pos, bonds), pt in (({"kind": "gasket", "generation": 6}, gasket(6), (
                   bonds, s, ttc, gamma=0.8, dyn=dyn, start={"near": [pt[0] + 0.01, pt[1] + 0.01]}, P=P, atol=1e-6,
                   report=("msd", "return", "spread", "ipr", "entropy"),
                   source="scipy.sparse.linalg.expm_multiply %s" % scipy.__version__)
+
+# documented site orders (lattice.Triangle, lattice.Carpet, lattice.Gasket):
+# full populations compared index by index
+for lat, (pos, bonds), pt in (({"kind": "triangle", "side": 6}, triangle(6), (2.2, 1.6)),
+                              ({"kind": "carpet", "generation": 2, "variant": "cells"}, carpet_cells(2), (4.4, 1.3)),
+                              ({"kind": "carpet", "generation": 2, "variant": "corners"}, carpet_corners(2), (4.2, 1.3)),
+                              ({"kind": "gasket", "generation": 3}, gasket_doc_order(3), (3.1, 1.6)),
+                              ({"kind": "gasket", "generation": 4}, gasket_doc_order(4), (0.0, 0.0))):
+    s = nearest(pos, pt)
+    walk_case("order-%s-%s" % (lat["kind"], list(lat.values())[1]) + ("-" + lat.get("variant", "") if "variant" in lat else ""),
+              lat, pos, bonds, s, [0.0, 0.7, 2.0], start={"near": list(pt)}, report=("msd", "return", "populations"),
+              source="numpy.linalg.eigh; site order as documented in lattice (go doc ./lattice)")
 
 # 7. times edge cases
 pos, bonds = chain(6)
