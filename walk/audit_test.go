@@ -16,6 +16,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"sort"
 	"strings"
@@ -802,4 +803,51 @@ func TestAuditConcurrentServe(t *testing.T) {
 	for i := range outs {
 		assert.Equal(t, want, strip(outs[i].String()), "loop %d", i)
 	}
+}
+
+// TestAuditBridgeBinary drives the built bridge (examples/bridge) as a
+// notebook would: exit status 0 at end of input even with failed lines,
+// only JSON lines on stdout, logs on stderr, and a non-zero status when
+// stdin cannot be read at all (contract, Transport).
+func TestAuditBridgeBinary(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the bridge binary")
+	}
+	goBin, err := exec.LookPath("go")
+	if err != nil {
+		t.Skip("no go command on PATH")
+	}
+	bin := filepath.Join(t.TempDir(), "ampwalk-bridge")
+	out, err := exec.Command(goBin, "build", "-o", bin, "../examples/bridge").CombinedOutput()
+	require.NoError(t, err, string(out))
+
+	in := "\ufeff" + `{"id":"a","lattice":{"kind":"gasket","generation":3},"start":{"near":[0,0]},"times":[0.5,1]}` + "\r\n" +
+		"\n" + `not json` + "\n" +
+		`{"id":"b","lattice":{"kind":"gasket","generation":-2},"start":{"site":0},"times":[1]}` + "\n" +
+		`{"id":"c","lattice":{"kind":"chain","sites":4},"start":{"site":0},"times":[1],"report":["populations"]}`
+	cmd := exec.Command(bin)
+	cmd.Stdin = strings.NewReader(in)
+	var stdout, stderr bytes.Buffer
+	cmd.Stdout, cmd.Stderr = &stdout, &stderr
+	require.NoError(t, cmd.Run(), "exit status 0 at end of input even with failed lines")
+	lines := strings.Split(strings.TrimRight(stdout.String(), "\n"), "\n")
+	require.Len(t, lines, 4)
+	ids := []string{"a", "", "b", "c"}
+	for i, l := range lines {
+		var m map[string]any
+		require.NoError(t, json.Unmarshal([]byte(l), &m), "stdout line %d is JSON: %q", i, l)
+		assert.Equal(t, ids[i], m["id"])
+	}
+	assert.NotEmpty(t, stderr.String(), "logs go to stderr")
+	assert.NotContains(t, stdout.String(), "ampwalk:", "no log text on stdout")
+
+	dir, err := os.Open(t.TempDir())
+	require.NoError(t, err)
+	defer dir.Close()
+	cmd = exec.Command(bin)
+	cmd.Stdin = dir // reading a directory fails: the input cannot be read at all
+	err = cmd.Run()
+	var ee *exec.ExitError
+	require.ErrorAs(t, err, &ee)
+	assert.NotEqual(t, 0, ee.ExitCode())
 }
