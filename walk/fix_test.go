@@ -254,3 +254,41 @@ func TestFixClassicalOnsiteDisorderRefused(t *testing.T) {
 	assert.Equal(t, "disorder.onsite", field)
 	assert.Nil(t, res[1]["error"], "quantum on-site disorder stays accepted: %v", res[1])
 }
+
+func TestFixTinyTimes(t *testing.T) {
+	// Times far below the spectral scale (audit 17:52): the state is the
+	// initial one to rounding, p_start = 1 (common practice), for an
+	// explicit Chebyshev expansion and under auto, quantum and classical.
+	res := fixServe(t,
+		`{"id":"a","lattice":{"kind":"gasket","generation":2},"start":{"site":0},"times":[1e-20],"method":"chebyshev","report":["return"]}`,
+		`{"id":"b","lattice":{"kind":"gasket","generation":2},"start":{"site":0},"times":[5e-324],"method":"chebyshev","report":["return"]}`,
+		`{"id":"c","lattice":{"kind":"square","width":60,"height":60},"start":{"site":1830},"times":[1e-300,2.0],"dynamics":"classical","report":["return"]}`)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		assert.InDelta(t, 1, r["return"].([]any)[0], 1e-15, "%v", r["id"])
+	}
+	assert.Equal(t, 1e-300, res[2]["times"].([]any)[0], "times echoed as given")
+}
+
+func TestFixProbabilitiesClampedAndSeriesIndex(t *testing.T) {
+	res := fixServe(t,
+		// An isolated start site (exact p = 1, common practice): the
+		// Chebyshev state within tolerance must not make polya fail on a
+		// return probability 1 + 10⁻⁹ (audit 17:55).
+		`{"id":"p","lattice":{"kind":"graph","sites":3,"bonds":[[1,2,2.9]],"onsite":[-1.7,0.5,0.1]},"start":{"site":0},"times":[1.2,1.9,4.3],"method":"chebyshev","tolerance":1e-8,"report":["return","polya"]}`,
+		// One rule for series errors, with the index (audit 17:53).
+		`{"id":"s6","series":{"times":[1,2,3,4],"values":[1,2,3,4],"errors":[0,0,0,0]}}`,
+		// The lowest offending index over all lists.
+		`{"id":"s7","series":{"times":[1,2,1.5,4],"values":[1,-1,3,4]}}`)
+	require.Nil(t, res[0]["error"], "%v", res[0])
+	for _, v := range res[0]["return"].([]any) {
+		assert.LessOrEqual(t, v.(float64), 1.0)
+		assert.InDelta(t, 1, v, 1e-8)
+	}
+	assert.InDelta(t, 1, res[0]["polya"], 1e-12)
+	code, field, _ := fixErr(res[1])
+	assert.Equal(t, "invalid", code)
+	assert.Equal(t, "series.errors[0]", field)
+	_, field, _ = fixErr(res[2])
+	assert.Equal(t, "series.values[1]", field)
+}

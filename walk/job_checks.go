@@ -458,3 +458,44 @@ func autoRetry(ctx context.Context, set Settings, err error) bool {
 	}
 	return !errors.Is(err, context.Canceled) && !errors.Is(err, context.DeadlineExceeded)
 }
+
+// checkPoints validates the points of a series in index order, so that the
+// error names the lowest offending index over all lists (times[k], then
+// values[k], then errors[k]): times positive and strictly increasing,
+// values positive and finite, errors (when given) positive and finite, one
+// rule for every error, as observables.FitRegimes weights by 1/σ².
+func (s *SeriesSpec) checkPoints() error {
+	for k, t := range s.Times {
+		if t <= 0 {
+			return fault.Range(index("series.times", k), "a positive time", t)
+		}
+		if k > 0 && t <= s.Times[k-1] {
+			return fault.New(index("series.times", k), "must be greater than the time before it (%v); got %v", s.Times[k-1], t)
+		}
+		if v := s.Values[k]; v <= 0 || math.IsInf(v, 0) || math.IsNaN(v) {
+			return fault.Range(index("series.values", k), "a positive finite number", v)
+		}
+		if s.Errors != nil {
+			if e := s.Errors[k]; e <= 0 || math.IsInf(e, 0) || math.IsNaN(e) {
+				return fault.Range(index("series.errors", k), "a positive finite number (a standard error)", e)
+			}
+		}
+	}
+	return nil
+}
+
+// clampProbabilities clamps every p_i into [0, 1] in place and returns p:
+// a propagated state within its tolerance can give a probability a
+// rounding step outside (1 + 10⁻¹², −10⁻¹⁷), which the reductions (Pólya
+// number, entropy) must not see. The norm drift in the diagnostics still
+// reports the deviation.
+func clampProbabilities(p []float64) []float64 {
+	for i, v := range p {
+		if v < 0 {
+			p[i] = 0
+		} else if v > 1 {
+			p[i] = 1
+		}
+	}
+	return p
+}

@@ -475,25 +475,7 @@ func (s *SeriesSpec) validate() error {
 	if s.Errors != nil && len(s.Errors) != n {
 		return fault.New("series.errors", "must hold one error per time (%d); got %d", n, len(s.Errors))
 	}
-	for k, t := range s.Times {
-		if t <= 0 {
-			return fault.Range(index("series.times", k), "a positive time", t)
-		}
-		if k > 0 && t <= s.Times[k-1] {
-			return fault.New(index("series.times", k), "must be greater than the time before it (%v); got %v", s.Times[k-1], t)
-		}
-	}
-	for k, v := range s.Values {
-		if v <= 0 || math.IsInf(v, 0) || math.IsNaN(v) {
-			return fault.Range(index("series.values", k), "a positive finite number", v)
-		}
-	}
-	for k, e := range s.Errors {
-		if e < 0 {
-			return fault.Range(index("series.errors", k), "a non-negative number", e)
-		}
-	}
-	return nil
+	return s.checkPoints()
 }
 
 func (job *Job) decodeSpectrumJob(o *object) error {

@@ -333,13 +333,13 @@ func (j *Job) evolve(ctx context.Context, g *lattice.Graph, s0 int, times []floa
 				for i, a := range state {
 					p[i] = real(a)
 				}
-				return visit(k, p)
+				return visit(k, clampProbabilities(p))
 			})
 		} else {
 			psi0 := make([]complex128, n)
 			psi0[s0] = 1
 			d, err = QuantumWalk(ctx, g, j.Hopping, psi0, times, set, func(k int, _ float64, state []complex128) error {
-				return visit(k, observables.Probabilities(p, state))
+				return visit(k, clampProbabilities(observables.Probabilities(p, state)))
 			})
 		}
 		if attempt > 0 || !autoRetry(ctx, set, err) {
