@@ -142,7 +142,9 @@ package walk
 // "diagnostics" {method, products, norm_drift, error_bound, seconds,
 // reason (extension: why auto chose the method)}; over realisations products
 // are summed, drift and bound are maxima, and method is "mixed" if they
-// differ. For quantum walks error_bound is at least 2⁻⁵²·‖H‖·t_max (‖H‖
+// differ. Probabilities are clamped to [0, 1] before the reductions (a
+// state within tolerance can give 1 + 10⁻⁹; norm_drift still reports the
+// deviation). For quantum walks error_bound is at least 2⁻⁵²·‖H‖·t_max (‖H‖
 // by Gershgorin's bound), the phase error double precision cannot avoid at
 // long times; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
 // field "tolerance". "chebyshev" needing more than 10⁹ products (about
@@ -162,9 +164,10 @@ package walk
 // {"series": {"times", "values", "errors"?}, "report": ["regimes"], "fit":
 // {"from", "to", "segments"}} runs the regime analysis on a given curve (a
 // "quantity" in fit, as in a walk job's fit object, is checked and ignored);
-// times strictly increasing and positive, values positive and finite, at
-// least 2 points (the fit itself needs 4 per segment); errors name
-// "series.values[k]" etc. A spectrum job has "spectrum" and a lattice
+// times strictly increasing and positive, values positive and finite,
+// errors (optional) positive and finite, at least 2 points (the fit itself
+// needs 4 per segment); errors name the lowest offending index over the
+// lists, "series.values[k]" etc. A spectrum job has "spectrum" and a lattice
 // (optionally hopping, remove, disorder with one realisation) and no
 // start/times: eigenvalues (ascending; refused above MaxEigenvalueSites =
 // 8192 sites), dos {bins (200), method "exact"|"kpm" (default kpm),
