@@ -292,3 +292,16 @@ func TestFixProbabilitiesClampedAndSeriesIndex(t *testing.T) {
 	_, field, _ = fixErr(res[2])
 	assert.Equal(t, "series.values[1]", field)
 }
+
+func TestFixNearFarOutside(t *testing.T) {
+	// A start.near coordinate so large that squared distances overflow
+	// (audit 17:50) is refused instead of tying every site at +Inf.
+	r := fixServe(t, `{"id":"n","lattice":{"kind":"chain","sites":5},"start":{"near":[1e200,0]},"times":[0]}`)[0]
+	code, field, _ := fixErr(r)
+	assert.Equal(t, "invalid", code)
+	assert.Equal(t, "start.near[0]", field)
+	// 1e6 is still fine: the nearest chain site is the last one (index 4).
+	r = fixServe(t, `{"id":"m","lattice":{"kind":"chain","sites":5},"start":{"near":[1e6,0]},"times":[0],"report":["populations"]}`)[0]
+	require.Nil(t, r["error"], "%v", r)
+	assert.Equal(t, 1.0, r["populations"].([]any)[0].([]any)[4])
+}

@@ -499,3 +499,18 @@ func clampProbabilities(p []float64) []float64 {
 	}
 	return p
 }
+
+// maxNear bounds the coordinates of start.near: squared distances to the
+// lattice's sites must stay finite (1e150² = 1e300 < MaxFloat64), or every
+// site would tie at +Inf.
+const maxNear = 1e150
+
+// checkNear refuses a start.near coordinate beyond ±maxNear.
+func checkNear(field string, near []float64) error {
+	for k, x := range near {
+		if math.Abs(x) > maxNear {
+			return fault.Range(index(field+".near", k), "a coordinate of magnitude at most 1e150 (squared distances must stay finite)", x)
+		}
+	}
+	return nil
+}

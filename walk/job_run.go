@@ -129,6 +129,9 @@ func (j *Job) realisations() (first, n int) {
 // site resolves a start specification to a site index of g.
 func site(g *lattice.Graph, field string, i int, near []float64) (int, error) {
 	if near != nil {
+		if err := checkNear(field, near); err != nil {
+			return 0, err
+		}
 		s, err := g.Nearest(near)
 		if err != nil {
 			return 0, within(field, err)
