@@ -354,6 +354,9 @@ func TestBlocksCoverRowsInOrder(t *testing.T) {
 }
 
 func TestKernelsAllocateNothing(t *testing.T) {
+	if raceEnabled {
+		t.Skip("sync.Pool drops items under the race detector")
+	}
 	rng := rand.New(rand.NewPCG(7, 1))
 	n := 40000 // large enough for two blocks at the default minBlockWork
 	m := randomCSR(rng, n, false, false, true)
