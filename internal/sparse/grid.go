@@ -103,31 +103,38 @@ func (m *CSR) gridRows(y, x []complex128, lo, hi int) {
 				}
 				xi = i - yi*w
 			}
-			var sr, si float64
-			if up {
-				v := x[i-w]
-				sr += real(v)
-				si += imag(v)
-			}
-			if xi > 0 {
-				v := x[i-1]
-				sr += real(v)
-				si += imag(v)
-			}
-			if xi+1 < w {
-				v := x[i+1]
-				sr += real(v)
-				si += imag(v)
-			}
-			if down {
-				v := x[i+w]
-				sr += real(v)
-				si += imag(v)
-			}
+			sr, si := edgeSum(x, i, xi, w, up, down)
 			y[i-lo] = complex(sr*u, si*u)
 			i++
 		}
 	}
+}
+
+// edgeSum returns the neighbour sum of site i (column xi of a lattice row
+// of width w) in the CSR's column order: below, left, right, above, each
+// where it exists. It serves the boundary sites; interior runs inline it.
+func edgeSum(x []complex128, i, xi, w int, up, down bool) (sr, si float64) {
+	if up {
+		v := x[i-w]
+		sr += real(v)
+		si += imag(v)
+	}
+	if xi > 0 {
+		v := x[i-1]
+		sr += real(v)
+		si += imag(v)
+	}
+	if xi+1 < w {
+		v := x[i+1]
+		sr += real(v)
+		si += imag(v)
+	}
+	if down {
+		v := x[i+w]
+		sr += real(v)
+		si += imag(v)
+	}
+	return sr, si
 }
 
 // gridRowsReal is gridRows on real vectors.
@@ -211,27 +218,7 @@ func (m *CSR) gridCheb(dst, cur, prev, acc []complex128, scale, shift float64, c
 				i++
 				continue
 			}
-			var sr, si float64
-			if up {
-				v := cur[i-w]
-				sr += real(v)
-				si += imag(v)
-			}
-			if xi > 0 {
-				v := cur[i-1]
-				sr += real(v)
-				si += imag(v)
-			}
-			if xi+1 < w {
-				v := cur[i+1]
-				sr += real(v)
-				si += imag(v)
-			}
-			if down {
-				v := cur[i+w]
-				sr += real(v)
-				si += imag(v)
-			}
+			sr, si := edgeSum(cur, i, xi, w, up, down)
 			update(i, sr, si)
 			i++
 		}
