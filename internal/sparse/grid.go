@@ -103,7 +103,13 @@ func (m *CSR) gridRows(y, x []complex128, lo, hi int) {
 				}
 				xi = i - yi*w
 			}
-			sr, si := edgeSum(x, i, xi, w, up, down)
+			var sr, si float64
+			if h == 1 && xi > 0 && xi+1 < w { // the chain's interior
+				l, r := x[i-1], x[i+1]
+				sr, si = real(l)+real(r), imag(l)+imag(r)
+			} else {
+				sr, si = edgeSum(x, i, xi, w, up, down)
+			}
 			y[i-lo] = complex(sr*u, si*u)
 			i++
 		}
@@ -111,8 +117,9 @@ func (m *CSR) gridRows(y, x []complex128, lo, hi int) {
 }
 
 // edgeSum returns the neighbour sum of site i (column xi of a lattice row
-// of width w) in the CSR's column order: below, left, right, above, each
-// where it exists. It serves the boundary sites; interior runs inline it.
+// of width w) in the CSR's column order: i−w (when up), i−1, i+1, i+w (when
+// down), each where it exists. It serves the boundary sites; the interior
+// loops sum inline in the same order.
 func edgeSum(x []complex128, i, xi, w int, up, down bool) (sr, si float64) {
 	if up {
 		v := x[i-w]
@@ -212,11 +219,19 @@ func (m *CSR) gridCheb(dst, cur, prev, acc []complex128, scale, shift float64, c
 		up, down := yi > 0, yi+1 < h
 		for i < end {
 			xi := i - yi*w
-			if up && down && xi > 0 && xi+1 < w {
-				a, l, r, b := cur[i-w], cur[i-1], cur[i+1], cur[i+w]
-				update(i, real(a)+real(l)+real(r)+real(b), imag(a)+imag(l)+imag(r)+imag(b))
-				i++
-				continue
+			if xi > 0 && xi+1 < w {
+				switch {
+				case up && down:
+					a, l, r, b := cur[i-w], cur[i-1], cur[i+1], cur[i+w]
+					update(i, real(a)+real(l)+real(r)+real(b), imag(a)+imag(l)+imag(r)+imag(b))
+					i++
+					continue
+				case h == 1: // the chain
+					l, r := cur[i-1], cur[i+1]
+					update(i, real(l)+real(r), imag(l)+imag(r))
+					i++
+					continue
+				}
 			}
 			sr, si := edgeSum(cur, i, xi, w, up, down)
 			update(i, sr, si)
