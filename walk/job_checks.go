@@ -257,14 +257,26 @@ func latticeBytes(n, m float64, dim int) float64 {
 func tooLargeLattice(field, kind string, n, m float64, dim int, why string) error {
 	est := latticeBytes(n, m, dim)
 	var size string
-	if est < 1<<62 {
+	switch {
+	case est < 1<<62:
 		size = fmt.Sprintf("about %d bytes (%.3g GiB)", int64(est), est/(1<<30))
-	} else {
+	case math.IsInf(est, 1):
+		size = fmt.Sprintf("more than %.3g bytes", math.MaxFloat64)
+	default:
 		size = fmt.Sprintf("about %.3g bytes", est)
 	}
 	return &fault.Error{Kind: fault.TooLarge, Field: field,
-		Msg: fmt.Sprintf("gives a %s lattice of %.4g sites and %.4g bonds, whose graph alone needs %s before any propagation; %s",
-			kind, n, m, size, why)}
+		Msg: fmt.Sprintf("gives a %s lattice of %s sites and %s bonds, whose graph alone needs %s before any propagation; %s",
+			kind, count(n), count(m), size, why)}
+}
+
+// count renders a site or bond count for a message; counts beyond the
+// float64 range (2³¹ generations, say) read "more than 1.8e+308".
+func count(x float64) string {
+	if math.IsInf(x, 1) || math.IsNaN(x) {
+		return fmt.Sprintf("more than %.3g", math.MaxFloat64)
+	}
+	return fmt.Sprintf("%.4g", x)
 }
 
 // checkRemove validates the remove list against a graph of n sites: every
