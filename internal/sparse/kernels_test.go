@@ -345,7 +345,7 @@ func TestBlocksCoverRowsInOrder(t *testing.T) {
 			b := m.Blocks()
 			require.Equal(t, 0, b[0])
 			require.Equal(t, n, b[len(b)-1])
-			require.LessOrEqual(t, len(b)-1, w)
+			require.LessOrEqual(t, len(b)-1, w*blocksPerWorker)
 			for k := 1; k < len(b); k++ {
 				require.LessOrEqual(t, b[k-1], b[k], "n=%d w=%d", n, w)
 			}

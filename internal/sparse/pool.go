@@ -3,6 +3,7 @@ package sparse
 import (
 	"runtime"
 	"sync"
+	"sync/atomic"
 )
 
 // minBlockWork is the least work (stored entries plus two per row) a block
@@ -12,6 +13,12 @@ var minBlockWork = 1 << 14
 
 // maxWorkers caps the pool.
 const maxWorkers = 256
+
+// blocksPerWorker is how many row blocks a parallel product has per worker.
+// The workers claim blocks in order from a shared counter, so a worker whose
+// core is busy with another process does fewer of them instead of holding
+// everyone up; 1 gives one static block per worker.
+var blocksPerWorker = 4
 
 // blockCount returns the number of row blocks a product of m uses: Workers
 // (GOMAXPROCS when 0), capped so each block holds at least minBlockWork.
@@ -28,12 +35,21 @@ func (m *CSR) blockCount() int {
 	return max(w, 1)
 }
 
+// blockPlan returns the workers w and the row blocks nb of a product.
+func (m *CSR) blockPlan() (w, nb int) {
+	w = m.blockCount()
+	if w == 1 {
+		return 1, 1
+	}
+	return w, min(w*max(blocksPerWorker, 1), m.N)
+}
+
 // Blocks returns the row boundaries m's products use: block k is rows
 // [b[k], b[k+1]). Block boundaries split the work (stored entries plus two
 // per row) evenly and depend only on m and m.Workers.
 func (m *CSR) Blocks() []int {
-	w := m.blockCount()
-	b := make([]int, w+1)
+	_, nb := m.blockPlan()
+	b := make([]int, nb+1)
 	m.bounds(b)
 	return b
 }
@@ -92,35 +108,42 @@ type job struct {
 	norm                bool
 	bounds              []int
 	partial             []float64
+	workers             int          // goroutines taking part, the caller included
+	next                atomic.Int64 // the next block to claim
 	wg                  sync.WaitGroup
 }
 
 var jobPool = sync.Pool{New: func() any { return new(job) }}
 
+// newJob returns a job for a product of m on w workers (the caller's
+// blockCount); the row blocks are m's blockPlan.
 func newJob(m *CSR, o op, w int) *job {
+	_, nb := m.blockPlan()
 	j := jobPool.Get().(*job)
-	j.op, j.m = o, m
-	if cap(j.bounds) < w+1 {
-		j.bounds = make([]int, w+1)
-		j.partial = make([]float64, w)
+	j.op, j.m, j.workers = o, m, w
+	if cap(j.bounds) < nb+1 {
+		j.bounds = make([]int, nb+1)
+		j.partial = make([]float64, nb)
 	}
-	j.bounds = j.bounds[:w+1]
-	j.partial = j.partial[:w]
+	j.bounds = j.bounds[:nb+1]
+	j.partial = j.partial[:nb]
 	clear(j.partial)
+	j.next.Store(0)
 	m.bounds(j.bounds)
 	return j
 }
 
-// run executes every block, block 0 on the calling goroutine and block k on
-// pool worker k, waits, returns the partials summed in block order and
-// recycles j.
+// run executes every block: the calling goroutine and pool workers 1…w−1
+// claim blocks in order until none is left. It waits, returns the partials
+// summed in block order (so the result does not depend on which goroutine
+// computed which block) and recycles j.
 func (j *job) run() float64 {
-	w := len(j.bounds) - 1
+	w := j.workers
 	j.wg.Add(w - 1)
 	for k := 1; k < w; k++ {
 		workers.get(k) <- item{j, k}
 	}
-	j.block(0)
+	j.drain()
 	j.wg.Wait()
 	var s float64
 	for _, p := range j.partial {
@@ -139,6 +162,18 @@ func (j *job) release() {
 	j.rdst, j.rcur, j.rprev, j.racc = nil, nil, nil, nil
 	j.norm = false
 	jobPool.Put(j)
+}
+
+// drain claims and runs blocks until none is left.
+func (j *job) drain() {
+	nb := int64(len(j.bounds) - 1)
+	for {
+		k := j.next.Add(1) - 1
+		if k >= nb {
+			return
+		}
+		j.block(int(k))
+	}
 }
 
 // block runs the job's kernel on block k.
@@ -167,14 +202,14 @@ func (j *job) block(k int) {
 	}
 }
 
-// item is one block of a job handed to a pool worker.
+// item hands a job to pool worker k.
 type item struct {
 	j *job
 	k int
 }
 
-// pool is the set of persistent worker goroutines; worker k runs block k
-// of every parallel job, so each worker keeps touching the same rows.
+// pool is the set of persistent worker goroutines; worker k joins every
+// parallel job of at least k+1 workers.
 type pool struct {
 	mu    sync.Mutex
 	chans []chan item
@@ -197,7 +232,7 @@ func (p *pool) get(k int) chan item {
 
 func work(c chan item) {
 	for it := range c {
-		it.j.block(it.k)
+		it.j.drain()
 		it.j.wg.Done()
 	}
 }
