@@ -261,6 +261,10 @@ func TestAuditErrors(t *testing.T) {
 		{`{"id":"s1","series":{"times":[1,2,2,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s1", "invalid", "series.times[2]"},
 		{`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,-3,4,5]},"report":["regimes"]}`, "s2", "invalid", "series.values[2]"},
 		{`{"id":"s3","series":{"times":[0,2,3,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s3", "invalid", "series.times[0]"},
+		{`{"id":"s4","series":{"times":[1,2,3,4],"values":[1,2,3,4],"errors":[0,0,0,0]}}`, "s4", "invalid", "series.errors[0]"},
+		{`{"id":"s5","series":{"times":[1,2,1.5,4],"values":[1,-1,3,4]}}`, "s5", "invalid", "series.values[1]"},
+		{`{"id":"n1",` + ch + `,"start":{"near":[1e200,0]},"times":[0]}`, "n1", "invalid", "start.near[0]"},
+		{`{"id":"z1","lattice":{"kind":"chain","sites":1},"start":{"site":0},"times":[1,2,3,4,5],"report":["regimes"]}`, "z1", "invalid", ""},
 		{`{"id":"x1","lattice":{"kind":"hypercube","dimension":26},"start":{"site":0},"times":[1]}`, "x1", "too-large", ""},
 		// Sizes beyond any machine are too-large with the estimate, not
 		// invalid (contract: too-large names the estimate).
@@ -602,9 +606,9 @@ func TestAuditTimesAndRegimes(t *testing.T) {
 	require.Len(t, lg, 7)
 	assert.Equal(t, 0.001, lg[0])
 	assert.Equal(t, 1000.0, lg[6])
-	for k, v := range lg {
-		assert.InEpsilon(t, math.Pow(10, float64(k-3)), v, 1e-12, "log grid")
-	}
+	assert.Equal(t, []any{0.001, 0.01, 0.1, 1.0, 10.0, 100.0, 1000.0}, lg, "log grid on exact decades")
+	require.Len(t, res[4]["regimes"], 1, "a pure power law is one regime")
+	assert.Empty(t, res[4]["crossovers"])
 	for _, g := range res[4]["regimes"].([]any) {
 		m := g.(map[string]any)
 		assert.Equal(t, "diffusive", m["kind"], "MSD = 2t (classical line)")
@@ -850,4 +854,57 @@ func TestAuditBridgeBinary(t *testing.T) {
 	var ee *exec.ExitError
 	require.ErrorAs(t, err, &ee)
 	assert.NotEqual(t, 0, ee.ExitCode())
+}
+
+// TestAuditRegimeCounts checks that the regime analysis does not split
+// smooth curves: a power law with a tiny log correction is one regime, and
+// the quantum line up to t = 300 (801 sites, start in the middle) is
+// ballistic until the front reaches the ends (2γt ≈ 400, so t ≈ 200;
+// scipy expm_multiply gives d ln MSD/d ln t = 2.000000 up to t = 178).
+func TestAuditRegimeCounts(t *testing.T) {
+	var ts, y []float64
+	for k := 0; k < 60; k++ {
+		tt := math.Pow(10, -2+math.Log10(3e4)*float64(k)/59)
+		ts = append(ts, tt)
+		y = append(y, 2*tt*(1+1e-3*math.Log(tt)))
+	}
+	res := auditLines(t,
+		map[string]any{"id": "log", "series": map[string]any{"times": ts, "values": y}, "fit": map[string]any{"segments": 4}},
+		`{"id":"qu","lattice":{"kind":"chain","sites":801},"start":{"site":400},"times":{"from":0.01,"to":300,"count":60,"spacing":"log"},"report":["regimes"]}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+	}
+	assert.Len(t, res[0]["regimes"], 1, "2t(1+1e-3 ln t) is one diffusive regime")
+	regs := res[1]["regimes"].([]any)
+	require.GreaterOrEqual(t, len(regs), 2)
+	first := regs[0].(map[string]any)
+	assert.InDelta(t, 2, first["exponent"], 0.01, "MSD = 2t² (Childs, Farhi, Gutmann 2002, from memory)")
+	assert.Equal(t, "ballistic", first["kind"])
+	assert.GreaterOrEqual(t, first["to"], 150.0, "ballistic until the front reaches the ends")
+	cr := res[1]["crossovers"].([]any)
+	require.NotEmpty(t, cr)
+	assert.InDelta(t, 200, cr[0].(map[string]any)["time"], 50, "front reaches the ends at 2γt ≈ 400") // grid step ×1.19, common practice margin
+}
+
+// TestAuditProbabilityClamp checks that outputs stay probabilities when the
+// propagated state is within tolerance but its norm exceeds 1 by round-off
+// (an isolated start site with an on-site energy: p_start = 1 exactly), and
+// that times below rounding propagate as t = 0.
+func TestAuditProbabilityClamp(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"iso","lattice":{"kind":"graph","sites":3,"bonds":[[1,2,2.9]],"onsite":[-1.7,0.5,0.1]},"start":{"site":0},"times":[1.2,1.9,4.3],"method":"chebyshev","tolerance":1e-8,"report":["return","polya","populations"]}`,
+		`{"id":"tiny","lattice":{"kind":"gasket","generation":2},"start":{"site":0},"times":[1e-300,1e-20],"method":"chebyshev"}`,
+		`{"id":"tinyc","lattice":{"kind":"square","width":200,"height":200},"start":{"site":20100},"times":[1e-300,2.0],"dynamics":"classical"}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		for _, p := range r["return"].([]any) {
+			assert.LessOrEqual(t, p.(float64), 1.0, "%s", r["id"])
+			assert.GreaterOrEqual(t, p.(float64), 0.0, "%s", r["id"])
+		}
+	}
+	assert.InDelta(t, 1, res[0]["polya"], 1e-12, "p_start = 1 at every time")             // round-off, common practice
+	assert.InDelta(t, 1, res[1]["return"].([]any)[0], 1e-12, "t below rounding is t = 0") // round-off, common practice
+	assert.InDelta(t, 1, res[2]["return"].([]any)[0], 1e-12, "t below rounding is t = 0") // round-off, common practice
 }
