@@ -450,7 +450,13 @@ func TestAuditSpectrumDOS(t *testing.T) {
 		`{"id":"kpm","lattice":{"kind":"gasket","generation":4},"spectrum":{"dos":{"bins":100,"method":"kpm","moments":256}}}`,
 		`{"id":"ex","lattice":{"kind":"gasket","generation":4},"spectrum":{"dos":{"bins":100,"method":"exact"}}}`,
 		`{"id":"sq","lattice":{"kind":"square","width":30,"height":30},"spectrum":{"dos":{"bins":64,"method":"kpm","moments":128,"vectors":4,"seed":2}}}`,
+		// the contract's spectrum example, literally
+		`{"id": "s1", "lattice": {"kind": "gasket", "generation": 5}, "spectrum": {"eigenvalues": true, "dos": {"bins": 200, "method": "kpm", "moments": 512}, "ratio": true, "box_dimension": true}}`,
 	)
+	assert.Len(t, res[3]["dos"].(map[string]any)["energy"], 200, "bins")
+	assert.Contains(t, res[3], "box_dimension")
+	assert.Contains(t, res[3], "ratio")
+	assert.Len(t, res[3]["eigenvalues"], 366, "(3^6+3)/2 sites")
 	for _, r := range res {
 		require.Nil(t, r["error"], "%v", r)
 		d := r["dos"].(map[string]any)

@@ -692,5 +692,31 @@ for c in range(60):
               report=("msd", "return", "populations", "spread", "ipr", "entropy", "polya"),
               source="scipy.linalg.expm %s, seeded sweep (numpy default_rng(777))" % scipy.__version__)
 
+# 13. the contract's own example requests, literally
+pos, bonds = gasket_doc_order(6)
+s0 = nearest(pos, (0, 0))
+P = quantum_pops(len(pos), bonds, None, 1.0, s0, [0.1, 0.2, 0.5, 1.0])
+o = observables(P, pos, s0, [0.1, 0.2, 0.5, 1.0])
+cases.append(dict(name="contract-example-walk",
+                  request={"id": "contract-example-walk", "lattice": {"kind": "gasket", "generation": 6}, "hopping": 1.0,
+                           "start": {"near": [0, 0]}, "dynamics": "quantum", "times": [0.1, 0.2, 0.5, 1.0],
+                           "tolerance": 1e-10, "method": "auto", "report": ["msd", "return", "populations"]},
+                  expect={"sites": 1095, "bonds": 2187, "times": [0.1, 0.2, 0.5, 1.0], "msd": L(o["msd"]),
+                          "return": L(o["ret"]), "populations": [L(p) for p in P]},
+                  atol=1e-8, source="contract example; numpy.linalg.eigh, site order as documented by lattice.Gasket"))
+pos, bonds = gasket(5)
+ev = np.linalg.eigvalsh(wmatrix(len(pos), bonds))
+sp = np.diff(ev)
+thr = 1e-9 * (ev[-1] - ev[0])
+nz = sp[sp > thr]
+rr = np.minimum(nz[1:], nz[:-1]) / np.maximum(nz[1:], nz[:-1])
+cases.append(dict(name="contract-example-spectrum",
+                  request={"id": "contract-example-spectrum", "lattice": {"kind": "gasket", "generation": 5},
+                           "spectrum": {"eigenvalues": True, "dos": {"bins": 200, "method": "kpm", "moments": 512},
+                                        "ratio": True, "box_dimension": True}},
+                  expect={"sites": len(pos), "bonds": len(bonds), "eigenvalues": L(ev),
+                          "ratio": {"mean": float(rr.mean()), "used": len(rr), "degenerate": int((sp <= thr).sum())}},
+                  atol=1e-9, source="contract example; numpy.linalg.eigvalsh"))
+
 json.dump(dict(generator="make_refs.py", numpy=np.__version__, scipy=scipy.__version__, cases=cases),
           sys.stdout, indent=None, separators=(",", ":"))
