@@ -692,6 +692,18 @@ for c in range(60):
               report=("msd", "return", "populations", "spread", "ipr", "entropy", "polya"),
               source="scipy.linalg.expm %s, seeded sweep (numpy default_rng(777))" % scipy.__version__)
 
+# spectrum after remove (vacancies), hopping scaling
+pos, bonds = square(7, 6)
+rem = [3, 10, 24, 40]
+keep = [i for i in range(len(pos)) if i not in rem]
+ren = {o: i for i, o in enumerate(keep)}
+rb = [(ren[a], ren[b], w) for a, b, w in bonds if a in ren and b in ren]
+ev = np.linalg.eigvalsh(1.7 * wmatrix(len(keep), rb))
+add("spectrum-remove-square", {"lattice": {"kind": "square", "width": 7, "height": 6}, "hopping": 1.7, "remove": rem,
+                               "spectrum": {"eigenvalues": True}},
+    {"sites": len(keep), "bonds": len(rb), "kept": keep, "eigenvalues": L(ev)}, 1e-10,
+    "numpy.linalg.eigvalsh of the graph with the removed sites deleted")
+
 # 13. the contract's own example requests, literally
 pos, bonds = gasket_doc_order(6)
 s0 = nearest(pos, (0, 0))
