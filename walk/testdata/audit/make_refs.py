@@ -704,6 +704,16 @@ add("spectrum-remove-square", {"lattice": {"kind": "square", "width": 7, "height
     {"sites": len(keep), "bonds": len(rb), "kept": keep, "eigenvalues": L(ev)}, 1e-10,
     "numpy.linalg.eigvalsh of the graph with the removed sites deleted")
 
+# positions with the largest allowed dimension (64) and start by "near"
+r64 = np.random.default_rng(64)
+pos = [tuple(float(v) for v in r64.uniform(-1, 1, 64)) for _ in range(6)]
+bonds = [(0, 1, 1.0), (1, 2, 0.7), (2, 3, 1.2), (3, 4, 0.9), (4, 5, 1.1), (0, 5, 0.4)]
+lat = {"kind": "graph", "sites": 6, "bonds": [[a, b, w] for a, b, w in bonds], "positions": [list(p) for p in pos]}
+pt = [v + 0.01 for v in pos[4]]
+for dyn in ("quantum", "classical"):
+    walk_case("graph-64d-near-%s" % dyn, lat, pos, bonds, nearest(pos, pt), [0.3, 1.1, 2.9], dyn=dyn,
+              start={"near": pt}, report=("msd", "return", "populations", "spread"))
+
 # 13. the contract's own example requests, literally
 pos, bonds = gasket_doc_order(6)
 s0 = nearest(pos, (0, 0))
