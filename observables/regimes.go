@@ -139,6 +139,12 @@ type RegimeFit struct {
 // for a tolerance floor).
 const noiseFloor = 1e-3
 
+// minRelErr is the smallest relative error σ_y/y taken from given errors
+// (smaller ones are raised to it): it keeps the weights 1/σ² of the fit and
+// their sums finite for any positive finite errors and values, and lies far
+// below any measured precision (chosen here).
+const minRelErr = 1e-12
+
 // mergeMin is the least exponent difference that keeps two adjacent
 // segments apart, whatever their errors (chosen here: half the smallest
 // distance between the Kind thresholds).
@@ -157,7 +163,7 @@ const mergeMin = 0.05
 // Stat. 6, 461 (1978)) with 2·m parameters for m segments (m + 1 line
 // coefficients and m − 1 breakpoints):
 //
-//	with errors:    BIC = χ² + 2m ln n,  χ² = Σ ((ln y − η)/σ)², σ = σ_y/y
+//	with errors:    BIC = χ² + 2m ln n,  χ² = Σ ((ln y − η)/σ)², σ = max(σ_y/y, 10⁻¹²)
 //	without errors: BIC = n ln(RSS/n + f²) + 2m ln n,  f = 10⁻³
 //
 // where f is a relative noise floor (10⁻³ in y, i.e. on the ln y residual
@@ -272,7 +278,9 @@ func FitRegimes(times, values, errors []float64, s RegimeSettings) (*RegimeFit, 
 	if errors != nil {
 		sw = make([]float64, n)
 		for i := range n {
-			sw[i] = v[i] / errors[lo+i] // 1/σ of ln y
+			// 1/σ of ln y, σ = σ_y/y at least minRelErr so that the
+			// weights and their squares stay finite.
+			sw[i] = 1 / math.Max(errors[lo+i]/v[i], minRelErr)
 		}
 	}
 

@@ -179,3 +179,28 @@ func TestLocalExponentSharpChange(t *testing.T) {
 	}
 	assert.InDelta(t, 1.3, mean, 0.03)
 }
+
+func TestFitRegimesExtremeErrors(t *testing.T) {
+	// Legal but extreme inputs (audit: values up to 1e300 with errors 0.1,
+	// or one error of 1e-300) must not make the weights overflow: the result
+	// is finite everywhere (relative errors are floored at 1e-12, chosen
+	// here).
+	for _, c := range []struct{ ys, es []float64 }{
+		{[]float64{1, 2, 4, 8, 1e300, 10}, []float64{0.1, 0.1, 0.1, 0.1, 0.1, 0.1}},
+		{[]float64{1, 2, 4, 8, 9, 10}, []float64{0.1, 0.1, 1e-300, 0.1, 0.1, 0.1}},
+	} {
+		ts := []float64{1, 2, 3, 4, 5, 6}
+		f, err := FitRegimes(ts, c.ys, c.es, RegimeSettings{MaxSegments: 2, Seed: 1, Replicates: 20})
+		require.NoError(t, err)
+		all := append([]float64{f.Residual}, f.Scores...)
+		for _, r := range f.Regimes {
+			all = append(all, r.From, r.To, r.Exponent, r.Error, r.Prefactor)
+		}
+		for _, cr := range f.Crossovers {
+			all = append(all, cr.Time, cr.Low, cr.High)
+		}
+		for i, v := range all {
+			assert.True(t, finite(v), "value %d = %v", i, v)
+		}
+	}
+}
