@@ -32,7 +32,7 @@
 // FitRegimes analyses any positive series y(t): the smoothed local exponent
 // d ln y / d ln t (Savitzky–Golay on the log–log curve, five points,
 // quadratic, with the window shifted away from a sharp change when that
-// fits clearly better), a continuous broken-line fit of ln y against ln t
+// fits clearly better, and the three-point parabola where no window fits), a continuous broken-line fit of ln y against ln t
 // with 1…MaxSegments segments whose breakpoints are optimised, exponent
 // errors from the fit covariance and 95% crossover intervals from a seeded
 // bootstrap (residual resampling, or parametric when per-point errors are
