@@ -7,6 +7,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 )
@@ -240,8 +241,14 @@ func boolean(path string, raw json.RawMessage) (bool, error) {
 // str parses raw as a JSON string.
 func str(path string, raw json.RawMessage) (string, error) {
 	var s string
-	if t := bytes.TrimSpace(raw); len(t) == 0 || t[0] != '"' || json.Unmarshal(t, &s) != nil {
+	t := bytes.TrimSpace(raw)
+	if len(t) == 0 || t[0] != '"' || json.Unmarshal(t, &s) != nil {
 		return "", fault.New(path, "must be a string; got %s", describe(raw))
+	}
+	if !utf8.Valid(t) {
+		// encoding/json would replace the bytes by U+FFFD silently (and an
+		// id would then be echoed differently from the request).
+		return "", fault.New(path, "must be valid UTF-8 text; got a string with invalid bytes")
 	}
 	return s, nil
 }
