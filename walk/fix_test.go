@@ -308,3 +308,14 @@ func TestFixNearFarOutside(t *testing.T) {
 	require.Nil(t, r["error"], "%v", r)
 	assert.Equal(t, 1.0, r["populations"].([]any)[0].([]any)[4])
 }
+
+func TestFixInvalidUTF8String(t *testing.T) {
+	// A string with invalid UTF-8 bytes is refused rather than altered
+	// (encoding/json would turn the bytes into U+FFFD and the echoed id would
+	// differ from the request).
+	r := fixServe(t, "{\"id\":\"a\xffb\",\"lattice\":{\"kind\":\"chain\",\"sites\":3},\"start\":{\"site\":0},\"times\":[1]}")[0]
+	code, field, _ := fixErr(r)
+	assert.Equal(t, "invalid", code, "%v", r)
+	assert.Equal(t, "id", field)
+	assert.Equal(t, "", r["id"])
+}
