@@ -28,7 +28,8 @@ package walk
 // given twice in one object is "invalid", naming the key's path (the id is
 // echoed unless the id itself repeats). null means "the default". A line
 // that is not JSON, or not a JSON object, is "malformed". A UTF-8 byte order
-// mark at the start of a line is ignored.
+// mark at the start of a line is ignored; a string with invalid UTF-8 bytes
+// is "invalid" (it would otherwise be altered).
 //
 // Lattice sizes: a size parameter (sites, width, height, depth, side,
 // generation, dimension, leaves, shells) whose closed-form site count
