@@ -258,6 +258,7 @@ func TestAuditErrors(t *testing.T) {
 		{`{"id":"i22",` + ch + `,"start":{"site":2},"times":{"from":0,"to":1,"count":3,"spacing":"cubic"}}`, "i22", "invalid", "times.spacing"},
 		{`{"id":"i23",` + ch + `,"start":{"site":2},"times":[1e400]}`, "i23", "invalid", "times[0]"},
 		{`{"id":5,` + ch + `,` + ok + `}`, "", "invalid", "id"},
+		{"{\"id\":\"bad\xffutf8\"," + ch + `,` + ok + `}`, "", "invalid", "id"},
 		{`{"id":"s1","series":{"times":[1,2,2,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s1", "invalid", "series.times[2]"},
 		{`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,-3,4,5]},"report":["regimes"]}`, "s2", "invalid", "series.values[2]"},
 		{`{"id":"s3","series":{"times":[0,2,3,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s3", "invalid", "series.times[0]"},
@@ -888,6 +889,13 @@ func TestAuditRegimeCounts(t *testing.T) {
 	assert.InDelta(t, 2, first["exponent"], 0.01, "MSD = 2t² (Childs, Farhi, Gutmann 2002, from memory)")
 	assert.Equal(t, "ballistic", first["kind"])
 	assert.GreaterOrEqual(t, first["to"], 150.0, "ballistic until the front reaches the ends")
+	// Past the kink the local exponent follows the exact curve (scipy
+	// expm_multiply: d ln MSD/d ln t = −0.696 at t = 251.9, −1.408 at 300);
+	// 0.25 allows the ×1.19 grid (common practice).
+	le := res[1]["local_exponent"].([]any)
+	require.GreaterOrEqual(t, len(le), 2)
+	assert.InDelta(t, -0.696, le[len(le)-2], 0.25, "t = 251.9")
+	assert.InDelta(t, -1.408, le[len(le)-1], 0.25, "t = 300")
 	cr := res[1]["crossovers"].([]any)
 	require.NotEmpty(t, cr)
 	assert.InDelta(t, 200, cr[0].(map[string]any)["time"], 50, "front reaches the ends at 2γt ≈ 400") // grid step ×1.19, common practice margin
@@ -913,4 +921,17 @@ func TestAuditProbabilityClamp(t *testing.T) {
 	assert.InDelta(t, 1, res[0]["polya"], 1e-12, "p_start = 1 at every time")             // round-off, common practice
 	assert.InDelta(t, 1, res[1]["return"].([]any)[0], 1e-12, "t below rounding is t = 0") // round-off, common practice
 	assert.InDelta(t, 1, res[2]["return"].([]any)[0], 1e-12, "t below rounding is t = 0") // round-off, common practice
+}
+
+// TestAuditSeriesExtremes checks that legal but extreme series (values up
+// to 1e300, errors down to 1e-300) are analysed, not refused as numerical.
+func TestAuditSeriesExtremes(t *testing.T) {
+	res := auditLines(t,
+		`{"id":"big","series":{"times":[1,2,3,4,5,6],"values":[1,2,4,8,1e300,10],"errors":[0.1,0.1,0.1,0.1,0.1,0.1]},"report":["regimes"],"fit":{"segments":2}}`,
+		`{"id":"tiny","series":{"times":[1,2,3,4,5,6],"values":[1,2,4,8,9,10],"errors":[0.1,0.1,0.1,1e-300,0.1,0.1]},"report":["regimes"],"fit":{"segments":2}}`,
+	)
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		assert.NotEmpty(t, r["regimes"], "%s", r["id"])
+	}
 }
