@@ -32,9 +32,12 @@ type BoxDim struct {
 // distinct coordinate values) and b = 2 or 3. The fit runs from the largest
 // ε at which the occupied boxes hold two points on average (the spacing
 // scale, below which N(ε) saturates at the number of points) to the largest
-// ε not exceeding the extent of the set at which at least two boxes are
-// occupied (the system scale), by least squares of ln N(ε) on
-// ln(1/ε). Both bases are fitted and the one with the smaller standard error
+// ε ≤ extent/4 at which at least two boxes are occupied, by least squares of
+// ln N(ε) on ln(1/ε). Boxes comparable to the extent count the outline of
+// the set and bias the slope (the gasket came out 1.52–1.55 instead of
+// ln3/ln2 = 1.585 with them); only if fewer than three sizes remain is the
+// range extended one size at a time up to the largest ε ≤ extent with two
+// occupied boxes (the system scale). Smallest and Largest report the range. Both bases are fitted and the one with the smaller standard error
 // is reported (self-similar sets built on a base-2 or base-3 grid are
 // counted exactly by their own base). At least three box sizes must fit.
 //
@@ -135,11 +138,21 @@ func boxFit(coords []float64, dim int, weights []float64, lo []float64, delta, e
 			break
 		}
 	}
-	k1 := -1
+	// Boxes comparable to the extent see the outline of the set rather than
+	// its structure and bias the slope (low for the gasket), so the fit
+	// stops at the largest side ≤ extent/4; only when that leaves fewer than
+	// three sizes does it extend, one size at a time, up to the system scale.
+	k1, kmax := -1, -1
 	for k := range r.Counts {
 		if r.Sizes[k] <= extent*(1+1e-9) && r.Counts[k] >= 2-1e-9 {
-			k1 = k
+			kmax = k
+			if r.Sizes[k] <= extent/4*(1+1e-9) {
+				k1 = k
+			}
 		}
+	}
+	for k1 < kmax && k1-k0+1 < 3 {
+		k1++
 	}
 	if k1-k0+1 < 3 {
 		return r, false

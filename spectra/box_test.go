@@ -93,11 +93,17 @@ func TestBoxDimensionLattices(t *testing.T) {
 	require.Equal(t, 1.0, r.Smallest)
 
 	// The gasket graph's own (triangular) positions: ln3/ln2 ≈ 1.585
-	// (references.md), loosely, since the grid is not aligned with the set.
-	g := gasketGraph(t, 7)
-	r, err = BoxDimension(g.Coords(), 2, nil)
-	require.NoError(t, err)
-	require.InDelta(t, math.Log(3)/math.Log(2), r.Dimension, 0.08)
+	// (references.md). The grid is not aligned with the set; with the fit
+	// stopped at extent/4 the estimate is 1.576 at g = 7 and 1.580 at g = 9
+	// (issue 6: an independent numpy box count with the same rule gives 1.585 and
+	// 1.589), hence ±0.03 (common practice for box counts).
+	for _, gen := range []int{7, 9} {
+		g := gasketGraph(t, gen)
+		r, err = BoxDimension(g.Coords(), 2, nil)
+		require.NoError(t, err)
+		require.InDelta(t, math.Log(3)/math.Log(2), r.Dimension, 0.03, "g=%d", gen)
+		require.LessOrEqual(t, r.Largest, extentOf(g.Coords(), 2)/4*(1+1e-9), "g=%d", gen)
+	}
 }
 
 func TestBoxDimensionWeightedIgnoresTails(t *testing.T) {
@@ -138,4 +144,17 @@ func TestBoxDimensionErrors(t *testing.T) {
 		require.True(t, errors.As(err, &fe), "%v", c)
 		require.Equal(t, c.field, fe.Field)
 	}
+}
+
+// extentOf is the largest coordinate range of the points.
+func extentOf(coords []float64, dim int) float64 {
+	var e float64
+	for c := 0; c < dim; c++ {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for i := c; i < len(coords); i += dim {
+			lo, hi = math.Min(lo, coords[i]), math.Max(hi, coords[i])
+		}
+		e = math.Max(e, hi-lo)
+	}
+	return e
 }

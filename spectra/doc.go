@@ -30,7 +30,8 @@
 //     for integrated densities.
 //   - ratio.go: SpacingRatio (mean r̃ with degeneracies counted) and Unfold.
 //   - states.go: IPR, Participation and the energy-window map WindowMap.
-//   - box.go: BoxDimension, the box-counting dimension of a (weighted) point set.
+//   - box.go: BoxDimension, the box-counting dimension of a (weighted) point set,
+//     fitted from the spacing scale up to boxes of a quarter of the extent.
 //   - dimension.go: spectral dimension from the integrated DOS or from a
 //     return-probability series.
 //   - bands.go, cells.go: UnitCell, Bloch Hamiltonians, Bands along k paths,

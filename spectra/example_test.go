@@ -65,7 +65,7 @@ func ExampleBoxDimension() {
 	}
 	fmt.Printf("d = %.2f (ln3/ln2 = %.2f), boxes from %g to %g\n", b.Dimension, math.Log(3)/math.Log(2), b.Smallest, b.Largest)
 	// Output:
-	// d = 1.56 (ln3/ln2 = 1.58), boxes from 1.5 to 121.5
+	// d = 1.59 (ln3/ln2 = 1.58), boxes from 2 to 64
 }
 
 // The kagome bands at the centre of the Brillouin zone: the flat band at −2
