@@ -146,6 +146,8 @@ type SpectrumSpec struct {
 	DOS          *DOSSpec
 	Ratio        bool
 	BoxDimension bool
+	// SpectrumExt holds the extensions (job_spectrum_ext.go).
+	SpectrumExt
 }
 
 // DOSSpec configures the density of states: Bins histogram bins, Method

@@ -502,7 +502,7 @@ func (job *Job) decodeSpectrumJob(o *object) error {
 	if err != nil {
 		return err
 	}
-	if err := so.only("eigenvalues", "dos", "ratio", "box_dimension"); err != nil {
+	if err := so.only(append([]string{"eigenvalues", "dos", "ratio", "box_dimension"}, spectrumExtKeys...)...); err != nil {
 		return err
 	}
 	s := &SpectrumSpec{}
@@ -543,8 +543,11 @@ func (job *Job) decodeSpectrumJob(o *object) error {
 		}
 		s.DOS = d
 	}
-	if !s.Eigenvalues && s.DOS == nil && !s.Ratio && !s.BoxDimension {
-		return fault.New("spectrum", "must ask for at least one of eigenvalues, dos, ratio, box_dimension")
+	if err := decodeSpectrumExt(so, &s.SpectrumExt); err != nil {
+		return err
+	}
+	if !s.Eigenvalues && s.DOS == nil && !s.Ratio && !s.BoxDimension && !s.SpectrumExt.any() {
+		return fault.New("spectrum", "must ask for at least one of eigenvalues, dos, ratio, box_dimension, ipr, window, ldos, sectors, spectral_dimension")
 	}
 	job.Spectrum = s
 	return nil

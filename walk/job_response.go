@@ -55,6 +55,8 @@ type Response struct {
 	DOS          *DOSResult    `json:"dos,omitzero"`
 	Ratio        *RatioResult  `json:"ratio,omitzero"`
 	BoxDimension *BoxDimResult `json:"box_dimension,omitzero"`
+	// Spectrum-job extensions (job_spectrum_ext.go).
+	SpectrumExtResult
 
 	// Lab-workflow outputs (job_lab*.go): with "units", TimeUnit names the
 	// unit of Times (and of regimes, crossovers, fit_times) and

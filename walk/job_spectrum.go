@@ -92,5 +92,10 @@ func (j *Job) runSpectrum(ctx context.Context, log io.Writer) (*Response, error)
 		}
 		resp.BoxDimension = b
 	}
+	if s.SpectrumExt.any() {
+		if err := j.runSpectrumExt(ctx, g, values, resp); err != nil {
+			return nil, err
+		}
+	}
 	return resp, nil
 }
