@@ -175,7 +175,26 @@ package walk
 // moments (512), vectors (10), seed (0)} → {"energy", "density", "method"},
 // ratio → {mean, used, degenerate} (spacings below 1e-9 of the spectral
 // width are degeneracies), box_dimension → {dimension, error, smallest,
-// largest}.
+// largest} (fitted from the spacing scale up to boxes of a quarter of the
+// extent).
+//
+// Spectrum extensions (job_spectrum_ext.go): ipr: true → "ipr" (Σ_r |ψ_n(r)|⁴
+// of every eigenstate, ascending energy) and "participation" (1/ipr);
+// window {from, to} (both required, to ≥ from) → "window_map" (Σ over
+// eigenstates with from ≤ E_n ≤ to of |ψ_n(r)|², one value per site) and
+// "window_states" (their number); ldos {site (required), bins (200), method
+// "exact"|"kpm" (default kpm), moments (512)} → "ldos" {energy, density,
+// method}, integrating to 1; ipr, window and ldos method exact need all
+// eigenstates and are refused (too-large) above MaxExactSites = 4096 sites.
+// sectors: true (ring, periodic chain, periodic square only; not with
+// remove, and refused when disorder breaks the translations) → "sectors"
+// [{momentum [k…], orders [N…], size, eigenvalues, ratio?}], one entry per
+// translation sector (momentum 2πk/N along each translation; ratio as
+// above, present for sectors of at least 3 levels). spectral_dimension:
+// true → {value, error, from, to, points}: d_s = 2·slope of the integrated
+// DOS N(E) ∝ (E − E_min)^{d_s/2} over the lowest 10% of the levels of H
+// (spectra.SpectralDimensionLevels; eigenvalues limited as above). Errors
+// name the nested field, e.g. "spectrum.window.to", "spectrum.ldos.site".
 //
 // # Lab workflow extensions
 //
