@@ -547,7 +547,7 @@ func (job *Job) decodeSpectrumJob(o *object) error {
 		return err
 	}
 	if !s.Eigenvalues && s.DOS == nil && !s.Ratio && !s.BoxDimension && !s.SpectrumExt.any() {
-		return fault.New("spectrum", "must ask for at least one of eigenvalues, dos, ratio, box_dimension, ipr, window, ldos, sectors, spectral_dimension")
+		return fault.New("spectrum", "must ask for at least one of eigenvalues, dos, ratio, box_dimension, ipr, window, ldos, sectors, spectral_dimension, bands")
 	}
 	job.Spectrum = s
 	return nil

@@ -193,8 +193,15 @@ package walk
 // above, present for sectors of at least 3 levels). spectral_dimension:
 // true → {value, error, from, to, points}: d_s = 2·slope of the integrated
 // DOS N(E) ∝ (E − E_min)^{d_s/2} over the lowest 10% of the levels of H
-// (spectra.SpectralDimensionLevels; eigenvalues limited as above). Errors
-// name the nested field, e.g. "spectrum.window.to", "spectrum.ldos.site".
+// (spectra.SpectralDimensionLevels; eigenvalues limited as above). bands
+// {cell "square"|"triangular"|"honeycomb"|"kagome"|"lieb" (default the
+// lattice kind, when it is one of these), path (2 to 64 named points: "G" or
+// "Γ", and "K", "M", "X" where the cell has them), points per segment
+// (50, at most 10000)} → "bands" {k (cumulative path length), wavevectors,
+// energies (ascending per k), corners (index of each named point)}: the
+// Bloch bands of H = γA of the infinite lattice (the job's lattice is built
+// but not used). Errors name the nested field, e.g. "spectrum.window.to",
+// "spectrum.ldos.site", "spectrum.bands.path[1]".
 //
 // # Lab workflow extensions
 //

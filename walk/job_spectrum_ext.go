@@ -27,6 +27,18 @@ type SpectrumExt struct {
 	// SpectralDimension asks for d_s from the integrated density of states
 	// near the lower edge of the spectrum (spectra.SpectralDimensionLevels).
 	SpectralDimension bool
+	// Bands asks for the Bloch bands of a unit cell along a path of
+	// high-symmetry points.
+	Bands *BandsSpec
+}
+
+// BandsSpec selects a unit cell ("square", "triangular", "honeycomb",
+// "kagome" or "lieb"; empty for the lattice's own kind), the Path of named
+// high-symmetry points ("G" stands for "Γ") and the Points per segment.
+type BandsSpec struct {
+	Cell   string
+	Path   []string
+	Points int
 }
 
 // EnergyWindowSpec is the energy interval [From, To] of "window_map".
@@ -46,7 +58,7 @@ type LDOSSpec struct {
 
 // any reports whether any extension is asked for.
 func (x *SpectrumExt) any() bool {
-	return x.IPR || x.Window != nil || x.LDOS != nil || x.Sectors || x.SpectralDimension
+	return x.IPR || x.Window != nil || x.LDOS != nil || x.Sectors || x.SpectralDimension || x.Bands != nil
 }
 
 // needsVectors reports whether the extensions need all eigenstates.
@@ -55,7 +67,7 @@ func (x *SpectrumExt) needsVectors() bool {
 }
 
 // spectrumExtKeys are the extension keys of the "spectrum" object.
-var spectrumExtKeys = []string{"ipr", "window", "ldos", "sectors", "spectral_dimension"}
+var spectrumExtKeys = []string{"ipr", "window", "ldos", "sectors", "spectral_dimension", "bands"}
 
 // decodeSpectrumExt reads the extension keys of the "spectrum" object so.
 func decodeSpectrumExt(so *object, x *SpectrumExt) error {
@@ -120,7 +132,107 @@ func decodeSpectrumExt(so *object, x *SpectrumExt) error {
 		}
 		x.LDOS = l
 	}
+	bo, err := so.sub("bands")
+	if err != nil {
+		return err
+	}
+	if bo != nil {
+		if err := bo.only("cell", "path", "points"); err != nil {
+			return err
+		}
+		b := &BandsSpec{Points: 50}
+		if err := bo.choice("cell", &b.Cell, bandCells...); err != nil {
+			return err
+		}
+		raw, ok := bo.take("path")
+		if !ok {
+			return bo.required("path", "at least two named points, e.g. [\"G\", \"K\", \"M\", \"G\"]")
+		}
+		items, err := list("spectrum.bands.path", raw)
+		if err != nil {
+			return err
+		}
+		if len(items) < 2 || len(items) > 64 {
+			return fault.Range("spectrum.bands.path", "a list of 2 to 64 named points", len(items))
+		}
+		for k, it := range items {
+			name, err := str(index("spectrum.bands.path", k), it)
+			if err != nil {
+				return err
+			}
+			b.Path = append(b.Path, name)
+		}
+		if err := bo.int("points", &b.Points, 1, 10000); err != nil {
+			return err
+		}
+		x.Bands = b
+	}
 	return nil
+}
+
+// bandCells are the unit cells of "bands", named after the lattice kinds.
+var bandCells = []string{"square", "triangular", "honeycomb", "kagome", "lieb"}
+
+// BandsResult holds Bloch bands along a path: K the cumulative path length
+// at each wave vector (in units of the inverse nearest-neighbour spacing),
+// Wavevectors the Cartesian wave vectors, Energies[p] the band energies at
+// K[p] (ascending) and Corners the index of each named point of the path.
+type BandsResult struct {
+	K           []float64   `json:"k"`
+	Wavevectors [][]float64 `json:"wavevectors"`
+	Energies    [][]float64 `json:"energies"`
+	Corners     []int       `json:"corners"`
+}
+
+// bands computes the Bloch bands of b (spectra.Bands) with hopping γ.
+func (j *Job) bands(b *BandsSpec) (*BandsResult, error) {
+	const field = "spectrum.bands"
+	name := b.Cell
+	if name == "" {
+		name = j.Lattice.Kind
+	}
+	var c *spectra.UnitCell
+	switch name {
+	case "square":
+		c = spectra.SquareCell()
+	case "triangular":
+		c = spectra.TriangularCell()
+	case "honeycomb":
+		c = spectra.HoneycombCell()
+	case "kagome":
+		c = spectra.KagomeCell()
+	case "lieb":
+		c = spectra.LiebCell()
+	default:
+		return nil, fault.New(field+".cell", "is required unless the lattice kind is one of square, triangular, honeycomb, kagome, lieb; the lattice kind is %q", j.Lattice.Kind)
+	}
+	corners := make([][]float64, len(b.Path))
+	for i, p := range b.Path {
+		key := p
+		if key == "G" {
+			key = "Γ"
+		}
+		k, ok := c.Points[key]
+		if !ok {
+			names := []string{"G"}
+			for _, q := range []string{"K", "M", "X"} {
+				if _, ok := c.Points[q]; ok {
+					names = append(names, q)
+				}
+			}
+			return nil, fault.New(index(field+".path", i), "must name a high-symmetry point of the %s cell (one of %v); got %q", name, names, p)
+		}
+		corners[i] = k
+	}
+	if v := int64(len(b.Path)-1)*int64(b.Points)*int64(c.Sites()+c.Dim) + int64(c.Sites()); v > MaxPopulationValues {
+		return nil, &fault.Error{Kind: fault.TooLarge, Field: field + ".points",
+			Msg: fmt.Sprintf("the bands would hold about %d values; the limit is %d", v, MaxPopulationValues)}
+	}
+	bp, err := spectra.Bands(c, j.Hopping, corners, b.Points)
+	if err != nil {
+		return nil, within(field, err)
+	}
+	return &BandsResult{K: bp.Distance, Wavevectors: bp.K, Energies: bp.Energy, Corners: bp.Corners}, nil
 }
 
 // SectorResult is one symmetry sector of a spectrum job: its momentum label
@@ -153,6 +265,7 @@ type SpectrumExtResult struct {
 	LDOS              *DOSResult         `json:"ldos,omitzero"`
 	Sectors           []SectorResult     `json:"sectors,omitzero"`
 	SpectralDimension *SpectralDimResult `json:"spectral_dimension,omitzero"`
+	Bands             *BandsResult       `json:"bands,omitzero"`
 }
 
 // runSpectrumExt computes the extension outputs for the realised graph g;
@@ -229,6 +342,13 @@ func (j *Job) runSpectrumExt(ctx context.Context, g *lattice.Graph, values []flo
 			return err
 		}
 		resp.Sectors = s
+	}
+	if x.Bands != nil {
+		b, err := j.bands(x.Bands)
+		if err != nil {
+			return err
+		}
+		resp.Bands = b
 	}
 	if x.SpectralDimension {
 		est, err := spectra.SpectralDimensionLevels(values, 0)

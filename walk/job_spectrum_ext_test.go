@@ -207,6 +207,49 @@ func TestSpectrumExtSpectralDimension(t *testing.T) {
 	}
 }
 
+func TestSpectrumExtBands(t *testing.T) {
+	// Square cell, H = +γA: E(k) = 2γ(cos k_x + cos k_y), so 4 at Γ, 0 at
+	// X = (π, 0) and −4 at M = (π, π); kagome: a flat band at −2 and the
+	// lower dispersive band touching it at Γ (references.md, unit-cell
+	// spectra [derived]).
+	res := extServe(t,
+		`{"id":"sq","lattice":{"kind":"square","width":3,"height":3},"spectrum":{"bands":{"path":["G","X","M","G"],"points":8}}}`,
+		`{"id":"kag","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"kagome","path":["Γ","K","M","G"],"points":5}}}`)
+	r := res["sq"]
+	extOK(t, r)
+	b := r["bands"].(map[string]any)
+	k := extFloats(t, b["k"])
+	require.Len(t, k, 3*8+1)
+	corners := extFloats(t, b["corners"])
+	assert.Equal(t, []float64{0, 8, 16, 24}, corners)
+	en := b["energies"].([]any)
+	require.Len(t, en, len(k))
+	for i, want := range []float64{4, 0, -4, 4} {
+		e := extFloats(t, en[int(corners[i])])
+		require.Len(t, e, 1)
+		assert.InDelta(t, want, e[0], 1e-12)
+	}
+	for p, wv := range b["wavevectors"].([]any) {
+		q := extFloats(t, wv)
+		e := extFloats(t, en[p])
+		assert.InDelta(t, 2*(math.Cos(q[0])+math.Cos(q[1])), e[0], 1e-12)
+	}
+	for i := 1; i < len(k); i++ {
+		assert.Greater(t, k[i], k[i-1])
+	}
+
+	r = res["kag"]
+	extOK(t, r)
+	b = r["bands"].(map[string]any)
+	for _, row := range b["energies"].([]any) {
+		e := extFloats(t, row)
+		require.Len(t, e, 3)
+		assert.InDelta(t, -2, e[0], 1e-12)
+	}
+	e := extFloats(t, b["energies"].([]any)[0])
+	assert.InDelta(t, -2, e[1], 1e-12)
+}
+
 func TestSpectrumExtErrors(t *testing.T) {
 	cases := []struct {
 		line, code, field string
@@ -223,6 +266,14 @@ func TestSpectrumExtErrors(t *testing.T) {
 		{`{"id":"e10","lattice":{"kind":"chain","sites":9},"spectrum":{"ipr":1}}`, "invalid", "spectrum.ipr"},
 		{`{"id":"e11","lattice":{"kind":"chain","sites":5000},"spectrum":{"ipr":true}}`, "too-large", "spectrum"},
 		{`{"id":"e12","lattice":{"kind":"ring","sites":12},"remove":[3],"spectrum":{"sectors":true}}`, "invalid", "spectrum.sectors"},
+		{`{"id":"e13","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"path":["G","K"]}}}`, "invalid", "spectrum.bands.cell"},
+		{`{"id":"e14","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square","path":["G","K"]}}}`, "invalid", "spectrum.bands.path[1]"},
+		{`{"id":"e15","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"cubic","path":["G","X"]}}}`, "invalid", "spectrum.bands.cell"},
+		{`{"id":"e16","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square","path":["G"]}}}`, "invalid", "spectrum.bands.path"},
+		{`{"id":"e17","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square","path":["G","X"],"points":0}}}`, "invalid", "spectrum.bands.points"},
+		{`{"id":"e18","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square","path":["G","X"],"spin":1}}}`, "unknown-field", "spectrum.bands.spin"},
+		{`{"id":"e19","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square"}}}`, "invalid", "spectrum.bands.path"},
+		{`{"id":"e20","lattice":{"kind":"chain","sites":3},"spectrum":{"bands":{"cell":"square","path":["G",3]}}}`, "invalid", "spectrum.bands.path[1]"},
 	}
 	lines := make([]string, len(cases))
 	for i, c := range cases {
