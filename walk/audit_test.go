@@ -738,8 +738,8 @@ func TestAuditSeriesCrossover(t *testing.T) {
 // TestAuditBoxDimension checks box_dimension on sets with a known
 // dimension: a chain (1), a square patch (2), the Sierpinski carpet
 // (ln 8/ln 3, Mandelbrot 1982, from memory) and the gasket (ln 3/ln 2, same
-// source); the gasket's finite-size bias is allowed up to 0.05 (audit: the
-// fit includes boxes comparable to the extent).
+// source); 0.03 for the gasket's finite-size bias (audit: 1.523 at g=7 while
+// the fit ran up to the extent; 1.576–1.588 with boxes up to extent/4).
 func TestAuditBoxDimension(t *testing.T) {
 	res := auditLines(t,
 		`{"id":"chain","lattice":{"kind":"chain","sites":1000},"spectrum":{"box_dimension":true}}`,
@@ -747,7 +747,7 @@ func TestAuditBoxDimension(t *testing.T) {
 		`{"id":"carpet","lattice":{"kind":"carpet","generation":4,"variant":"cells"},"spectrum":{"box_dimension":true}}`,
 		`{"id":"gasket","lattice":{"kind":"gasket","generation":8},"spectrum":{"box_dimension":true}}`,
 	)
-	want := []struct{ d, tol float64 }{{1, 0.02}, {2, 0.02}, {math.Log(8) / math.Log(3), 0.02}, {math.Log(3) / math.Log(2), 0.05}} // tolerances: common practice for box counts
+	want := []struct{ d, tol float64 }{{1, 0.02}, {2, 0.02}, {math.Log(8) / math.Log(3), 0.02}, {math.Log(3) / math.Log(2), 0.03}} // tolerances: common practice for box counts
 	for i, r := range res {
 		require.Nil(t, r["error"], "%v", r)
 		b := r["box_dimension"].(map[string]any)
