@@ -186,11 +186,16 @@ package walk
 // "exact"|"kpm" (default kpm), moments (512)} → "ldos" {energy, density,
 // method}, integrating to 1; ipr, window and ldos method exact need all
 // eigenstates and are refused (too-large) above MaxExactSites = 4096 sites.
-// sectors: true (ring, periodic chain, periodic square only; not with
-// remove, and refused when disorder breaks the translations) → "sectors"
-// [{momentum [k…], orders [N…], size, eigenvalues, ratio?}], one entry per
-// translation sector (momentum 2πk/N along each translation; ratio as
-// above, present for sectors of at least 3 levels). spectral_dimension:
+// sectors: true (ring, periodic chain, periodic square, gasket, carpet; not
+// with remove, and refused when disorder breaks the symmetry) → "sectors"
+// [{momentum [k…], orders [N…], parity?, copies, size, eigenvalues,
+// ratio?}]: for the periodic lattices one entry per translation sector
+// (phase 2πk/N per step along each translation, copies 1); for the gasket
+// (C3v about its centre) and the carpet (C4v) the rotation sectors with the
+// vertical mirror (spectra.DihedralSectors): a pair q, −q is merged into one
+// entry with copies 2, and q = −q is split into parity +1 and −1, so level
+// statistics within one entry see no symmetry degeneracy. ratio as above,
+// present for sectors of at least 3 levels. spectral_dimension:
 // true → {value, error, from, to, points}: d_s = 2·slope of the integrated
 // DOS N(E) ∝ (E − E_min)^{d_s/2} over the lowest 10% of the levels of H
 // (spectra.SpectralDimensionLevels; eigenvalues limited as above). bands

@@ -3,6 +3,7 @@ package walk
 import (
 	"context"
 	"fmt"
+	"math"
 
 	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
@@ -240,8 +241,13 @@ func (j *Job) bands(b *BandsSpec) (*BandsResult, error) {
 // levels, the levels themselves (ascending) and their spacing ratio (absent
 // below three levels).
 type SectorResult struct {
-	Momentum    []int        `json:"momentum"`
-	Orders      []int        `json:"orders"`
+	Momentum []int `json:"momentum"`
+	Orders   []int `json:"orders"`
+	// Parity (±1) splits a self-conjugate sector of a gasket or carpet by
+	// the mirror; Copies (1 or 2) is how often its levels occur in the full
+	// spectrum (2 for the merged pair of rotation sectors q and −q).
+	Parity      int          `json:"parity,omitzero"`
+	Copies      int          `json:"copies"`
 	Size        int          `json:"size"`
 	Eigenvalues []float64    `json:"eigenvalues"`
 	Ratio       *RatioResult `json:"ratio,omitzero"`
@@ -370,25 +376,61 @@ func (j *Job) sectors(g *lattice.Graph) ([]SectorResult, error) {
 		return nil, fault.New(field, "needs the full periodic lattice; \"remove\" breaks its translations")
 	}
 	var syms []spectra.Symmetry
+	var mirror *spectra.Symmetry
 	switch {
 	case l.Kind == "ring" || l.Kind == "chain" && l.Periodic:
 		syms = []spectra.Symmetry{spectra.Translation(g.Len())}
 	case l.Kind == "square" && l.Periodic:
 		syms = spectra.SquareTranslations(l.Width, l.Height)
+	case l.Kind == "gasket" || l.Kind == "carpet":
+		// C3v of the gasket about its centre (2^(g−1), 2^(g−1)/√3), C4v of
+		// the carpet about (3^g/2, 3^g/2); the mirrors are vertical.
+		var cx, cy float64
+		order := 3
+		if l.Kind == "gasket" {
+			cx = math.Ldexp(1, l.Generation-1)
+			cy = cx / math.Sqrt(3)
+		} else {
+			order = 4
+			cx = math.Pow(3, float64(l.Generation)) / 2
+			cy = cx
+		}
+		th := 2 * math.Pi / float64(order)
+		c, s := math.Cos(th), math.Sin(th)
+		rot, err := spectra.PositionSymmetry(g, fmt.Sprintf("C%d", order), func(dst, p []float64) {
+			x, y := p[0]-cx, p[1]-cy
+			dst[0], dst[1] = cx+c*x-s*y, cy+s*x+c*y
+		})
+		if err != nil {
+			return nil, within(field, err)
+		}
+		mir, err := spectra.PositionSymmetry(g, "mirror", func(dst, p []float64) {
+			dst[0], dst[1] = 2*cx-p[0], p[1]
+		})
+		if err != nil {
+			return nil, within(field, err)
+		}
+		syms, mirror = []spectra.Symmetry{rot}, &mir
 	default:
-		return nil, fault.New(field, "is available for a ring, a periodic chain or a periodic square lattice; got lattice kind %q (periodic %v)", l.Kind, l.Periodic)
+		return nil, fault.New(field, "is available for a ring, a periodic chain, a periodic square lattice, a gasket or a carpet; got lattice kind %q (periodic %v)", l.Kind, l.Periodic)
 	}
 	if n := g.Len(); n > MaxPopulationValues {
 		return nil, &fault.Error{Kind: fault.TooLarge, Field: field,
 			Msg: fmt.Sprintf("the sector levels of a %d-site lattice exceed the response limit of %d values", n, MaxPopulationValues)}
 	}
-	secs, err := spectra.Sectors(g, j.Hopping, syms, false)
+	var secs []spectra.Sector
+	var err error
+	if mirror != nil {
+		secs, err = spectra.DihedralSectors(g, j.Hopping, syms, *mirror, false)
+	} else {
+		secs, err = spectra.Sectors(g, j.Hopping, syms, false)
+	}
 	if err != nil {
 		return nil, within(field, err)
 	}
 	out := make([]SectorResult, len(secs))
 	for i, s := range secs {
-		out[i] = SectorResult{Momentum: s.Label, Orders: s.Orders, Size: len(s.Values), Eigenvalues: s.Values}
+		out[i] = SectorResult{Momentum: s.Label, Orders: s.Orders, Parity: s.Parity, Copies: max(s.Copies, 1), Size: len(s.Values), Eigenvalues: s.Values}
 		if len(s.Values) >= 3 {
 			if out[i].Ratio, err = spacingRatio(s.Values); err != nil {
 				return nil, within(field, err)

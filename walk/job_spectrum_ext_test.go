@@ -189,6 +189,36 @@ func TestSpectrumExtSectorsRatio(t *testing.T) {
 	assert.Equal(t, 14.0, r["ratio"].(map[string]any)["degenerate"].(float64))
 }
 
+func TestSpectrumExtSectorsFractals(t *testing.T) {
+	// Gasket (C3v) and carpet (C4v) sectors: every level of the full
+	// spectrum appears Copies times over the sectors (block diagonalisation
+	// is exact; common practice), and no sector repeats the ±q pairing.
+	res := extServe(t,
+		`{"id":"gasket","lattice":{"kind":"gasket","generation":3},"spectrum":{"sectors":true,"eigenvalues":true}}`,
+		`{"id":"cells","lattice":{"kind":"carpet","generation":2},"spectrum":{"sectors":true,"eigenvalues":true}}`,
+		`{"id":"corners","lattice":{"kind":"carpet","generation":2,"variant":"corners"},"spectrum":{"sectors":true,"eigenvalues":true}}`)
+	for id, order := range map[string]float64{"gasket": 3, "cells": 4, "corners": 4} {
+		r := res[id]
+		extOK(t, r)
+		var union []float64
+		for _, s := range r["sectors"].([]any) {
+			sm := s.(map[string]any)
+			assert.Equal(t, []float64{order}, extFloats(t, sm["orders"]), id)
+			ev := extFloats(t, sm["eigenvalues"])
+			require.Len(t, ev, int(sm["size"].(float64)))
+			for range int(sm["copies"].(float64)) {
+				union = append(union, ev...)
+			}
+		}
+		sort.Float64s(union)
+		full := extFloats(t, r["eigenvalues"])
+		require.Len(t, union, len(full), id)
+		for i := range full {
+			assert.InDelta(t, full[i], union[i], 1e-9, id)
+		}
+	}
+}
+
 func TestSpectrumExtSpectralDimension(t *testing.T) {
 	// A 2D torus has d_s = 2 and a ring d_s = 1 (Alexander & Orbach,
 	// J. Physique Lett. 43, L625 (1982), from memory); finite size and the
@@ -262,7 +292,7 @@ func TestSpectrumExtErrors(t *testing.T) {
 		{`{"id":"e6","lattice":{"kind":"chain","sites":9},"spectrum":{"ldos":{"site":-1}}}`, "invalid", "spectrum.ldos.site"},
 		{`{"id":"e7","lattice":{"kind":"chain","sites":9},"spectrum":{"ldos":{"site":0,"method":"lanczos"}}}`, "invalid", "spectrum.ldos.method"},
 		{`{"id":"e8","lattice":{"kind":"chain","sites":9},"spectrum":{"ldos":{"bins":4}}}`, "invalid", "spectrum.ldos.site"},
-		{`{"id":"e9","lattice":{"kind":"gasket","generation":3},"spectrum":{"sectors":true}}`, "invalid", "spectrum.sectors"},
+		{`{"id":"e9","lattice":{"kind":"triangle","side":4},"spectrum":{"sectors":true}}`, "invalid", "spectrum.sectors"},
 		{`{"id":"e10","lattice":{"kind":"chain","sites":9},"spectrum":{"ipr":1}}`, "invalid", "spectrum.ipr"},
 		{`{"id":"e11","lattice":{"kind":"chain","sites":5000},"spectrum":{"ipr":true}}`, "too-large", "spectrum"},
 		{`{"id":"e12","lattice":{"kind":"ring","sites":12},"remove":[3],"spectrum":{"sectors":true}}`, "invalid", "spectrum.sectors"},
