@@ -179,7 +179,9 @@ package walk
 // extent).
 //
 // Spectrum extensions (job_spectrum_ext.go): ipr: true → "ipr" (Σ_r |ψ_n(r)|⁴
-// of every eigenstate, ascending energy) and "participation" (1/ipr);
+// of every eigenstate, ascending energy; within a degenerate eigenspace the
+// basis, hence the value, is the solver's choice) and "participation"
+// (1/ipr);
 // window {from, to} (both required, to ≥ from) → "window_map" (Σ over
 // eigenstates with from ≤ E_n ≤ to of |ψ_n(r)|², one value per site) and
 // "window_states" (their number); ldos {site (required), bins (200), method
