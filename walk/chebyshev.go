@@ -430,9 +430,11 @@ func besselJ(dst []float64, x float64, scratch []float64) []float64 {
 	for k := n; k >= 1; k-- {
 		v := 2*float64(k)/x*f[k] - f[k+1]
 		f[k-1] = v
-		if math.Abs(v) > 1e200 {
+		// Rescale well below overflow: the normalisation sums squares, so
+		// values must stay below ~1e150 (for tiny x each step grows by 2k/x).
+		if math.Abs(v) > 1e100 {
 			for q := k - 1; q <= n; q++ {
-				f[q] *= 1e-200
+				f[q] *= 1e-100
 			}
 		}
 	}

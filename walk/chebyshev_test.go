@@ -9,7 +9,7 @@ import (
 // (the reference: math.Jn, Go standard library) over orders and arguments
 // that cover small, moderate and the long segments the propagator uses.
 func TestBesselJ(t *testing.T) {
-	for _, x := range []float64{1e-8, 1e-3, 0.1, 1, 2.5, 10, 37.3, 100, 499.9} {
+	for _, x := range []float64{1e-14, 2e-13, 1e-8, 6e-7, 2e-6, 1e-3, 0.1, 1, 2.5, 10, 37.3, 100, 499.9} {
 		K := boundIndex(x, 1e-16) + 1
 		got := make([]float64, K)
 		besselJ(got, x, nil)
