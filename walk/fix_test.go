@@ -319,3 +319,17 @@ func TestFixInvalidUTF8String(t *testing.T) {
 	assert.Equal(t, "id", field)
 	assert.Equal(t, "", r["id"])
 }
+
+func TestFixGraphBondsRequired(t *testing.T) {
+	// A graph without "bonds" is refused (the contract lists bonds as a
+	// graph parameter; only positions and onsite are optional); an explicit
+	// empty list of bonds stays valid (isolated sites).
+	res := fixServe(t,
+		`{"id":"f","lattice":{"kind":"graph","sites":3},"start":{"site":0},"times":[1]}`,
+		`{"id":"e","lattice":{"kind":"graph","sites":3,"bonds":[]},"start":{"site":0},"times":[1]}`)
+	code, field, _ := fixErr(res[0])
+	assert.Equal(t, "invalid", code, "%v", res[0])
+	assert.Equal(t, "lattice.bonds", field)
+	require.Nil(t, res[1]["error"], "%v", res[1])
+	assert.Equal(t, 1.0, res[1]["return"].([]any)[0])
+}

@@ -283,6 +283,9 @@ func decodeGraph(o *object, s *LatticeSpec) error {
 			return fault.New("lattice.onsite", "must hold one energy per site (%d); got %d", n, len(s.Onsite))
 		}
 	}
+	if !o.has("bonds") {
+		return o.required("bonds", "a list of [i, j] or [i, j, w] ([] for isolated sites)")
+	}
 	return nil
 }
 
