@@ -93,7 +93,8 @@ package walk
 // "cells"|"corners"}, hypercube {dimension}, graph {sites, bonds [[i,j]] or
 // [[i,j,w]] (required; [] for isolated sites), positions (optional;
 // default site i at (i, 0)), onsite (optional)}. Extension kinds (site
-// order and positions as documented by the lattice builder named): ring {sites ≥ 3} (Chain periodic);
+// order and positions as documented by the lattice builder named): ring
+// {sites ≥ 3} (Chain periodic);
 // triangular {width, height, periodic} (TriangularPatch); honeycomb, kagome,
 // lieb {width, height, periodic}; cubic {width, height, depth, periodic};
 // complete {sites}; star {leaves}; cayley {coordination, shells}
