@@ -177,7 +177,9 @@ package walk
 // ratio → {mean, used, degenerate} (spacings below 1e-9 of the spectral
 // width are degeneracies), box_dimension → {dimension, error, smallest,
 // largest} (fitted from the spacing scale up to boxes of a quarter of the
-// extent).
+// extent; "error" is the fit's statistical error only and does not include
+// the finite-size bias of a small sample, e.g. a compact triangle patch of
+// side 64 gives about 1.74, not 2).
 //
 // Spectrum extensions (job_spectrum_ext.go): ipr: true → "ipr" (Σ_r |ψ_n(r)|⁴
 // of every eigenstate, ascending energy; within a degenerate eigenspace the
