@@ -262,6 +262,7 @@ func TestAuditErrors(t *testing.T) {
 		{`{"id":"s1","series":{"times":[1,2,2,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s1", "invalid", "series.times[2]"},
 		{`{"id":"s2","series":{"times":[1,2,3,4,5],"values":[1,2,-3,4,5]},"report":["regimes"]}`, "s2", "invalid", "series.values[2]"},
 		{`{"id":"s3","series":{"times":[0,2,3,4,5],"values":[1,2,3,4,5]},"report":["regimes"]}`, "s3", "invalid", "series.times[0]"},
+		{`{"id":"g1","lattice":{"kind":"graph","sites":3},"start":{"site":0},"times":[1]}`, "g1", "invalid", "lattice.bonds"},
 		{`{"id":"s4","series":{"times":[1,2,3,4],"values":[1,2,3,4],"errors":[0,0,0,0]}}`, "s4", "invalid", "series.errors[0]"},
 		{`{"id":"s5","series":{"times":[1,2,1.5,4],"values":[1,-1,3,4]}}`, "s5", "invalid", "series.values[1]"},
 		{`{"id":"n1",` + ch + `,"start":{"near":[1e200,0]},"times":[0]}`, "n1", "invalid", "start.near[0]"},
@@ -933,5 +934,41 @@ func TestAuditSeriesExtremes(t *testing.T) {
 	for _, r := range res {
 		require.Nil(t, r["error"], "%v", r)
 		assert.NotEmpty(t, r["regimes"], "%s", r["id"])
+	}
+}
+
+// TestAuditSmallTimes checks every method at small positive times (each
+// alone and as one list): Chebyshev and Krylov agree with the exact
+// eigenbasis within the default tolerance, for both dynamics.
+func TestAuditSmallTimes(t *testing.T) {
+	ts := []float64{1e-15, 1e-13, 3e-13, 1e-11, 3e-9, 1e-7, 3e-7, 1e-6, 3e-6, 1e-4, 1e-2}
+	var reqs []any
+	for _, dyn := range []string{"quantum", "classical"} {
+		for _, m := range []string{"exact", "chebyshev", "krylov"} {
+			reqs = append(reqs, map[string]any{"id": dyn + "-" + m + "-all", "lattice": map[string]any{"kind": "gasket", "generation": 3},
+				"start": map[string]any{"site": 0}, "times": ts, "method": m, "dynamics": dyn, "report": []string{"populations"}})
+			for _, tt := range ts {
+				reqs = append(reqs, map[string]any{"id": fmt.Sprintf("%s-%s-%g", dyn, m, tt), "lattice": map[string]any{"kind": "gasket", "generation": 3},
+					"start": map[string]any{"site": 0}, "times": []float64{tt}, "method": m, "dynamics": dyn, "report": []string{"populations"}})
+			}
+		}
+	}
+	res := auditLines(t, reqs...)
+	byID := map[string][]any{}
+	for _, r := range res {
+		require.Nil(t, r["error"], "%v", r)
+		byID[r["id"].(string)] = r["populations"].([]any)
+	}
+	for _, dyn := range []string{"quantum", "classical"} {
+		ref := byID[dyn+"-exact-all"]
+		for _, m := range []string{"exact", "chebyshev", "krylov"} {
+			for k, tt := range ts {
+				for _, got := range [][]any{byID[dyn+"-"+m+"-all"][k].([]any), byID[fmt.Sprintf("%s-%s-%g", dyn, m, tt)][0].([]any)} {
+					for j := range got {
+						assert.InDelta(t, ref[k].([]any)[j], got[j], 1e-10, "%s %s t=%g site %d", dyn, m, tt, j) // default tolerance 1e-10 (contract)
+					}
+				}
+			}
+		}
 	}
 }
