@@ -99,6 +99,12 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 			nsteps++
 		}
 	}
+	// Quantum walks on a CSR operator group reported times into shared
+	// Chebyshev expansions (chebplan.go).
+	var plan *chebPlan
+	if c, ok := p.(*chebyshev); ok && !classical && c.csr != nil && norm0 > 0 {
+		plan = newChebPlan(c, times, tolAbs, norm0, tmax, nsteps, s.MemoryLimit)
+	}
 	prev := 0.0
 	for k, t := range times {
 		if dt := t - prev; dt > 0 {
@@ -106,10 +112,17 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 				d.Seconds = time.Since(start).Seconds()
 				return d, cancelled(err)
 			}
-			// The error budget: half shared by time, half by step, so the
-			// sum over all steps stays below the tolerance.
-			tol := tolAbs * (0.5*dt/tmax + 0.5/float64(nsteps))
-			prods, e, err := p.step(ctx, psi, dt, tol)
+			var prods int
+			var e float64
+			var err error
+			if plan != nil {
+				prods, e, err = plan.advance(ctx, psi, dt)
+			} else {
+				// The error budget: half shared by time, half by step, so the
+				// sum over all steps stays below the tolerance.
+				tol := tolAbs * (0.5*dt/tmax + 0.5/float64(nsteps))
+				prods, e, err = p.step(ctx, psi, dt, tol)
+			}
 			d.Products += prods
 			d.ErrorBound += e
 			if err != nil {
@@ -231,8 +244,9 @@ func EstimateBytes(n, nnz int, m Method) int64 {
 		// Two recurrence vectors and the accumulator beyond the base, plus one
 		// of slack: measured peak resident sets of gasket g = 10…14 runs sit
 		// within 10% of this (benchdata/RESULTS.md). The classical walk runs on
-		// real vectors and stays below it.
-		return base + 4*vec
+		// real vectors and stays below it. A quantum walk may hold up to
+		// planExtraVectors more accumulators (chebplan.go).
+		return base + int64(4+planExtraVectors)*vec
 	}
 	return EstimateBytes(n, nnz, Chebyshev)
 }

@@ -1,0 +1,228 @@
+package walk
+
+import (
+	"context"
+	"math"
+	"testing"
+
+	"github.com/ampwalk/ampwalk/lattice"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// logTimes returns count times log-spaced from lo to hi.
+func logTimes(lo, hi float64, count int) []float64 {
+	ts := make([]float64, count)
+	for k := range ts {
+		ts[k] = lo * math.Pow(hi/lo, float64(k)/float64(count-1))
+	}
+	return ts
+}
+
+// lineAmp is the amplitude (−i)^k J_k(2t) at distance k from the start on
+// the infinite line with unit hopping (references.md, the line).
+func lineAmp(k int, t float64) complex128 {
+	j := math.Jn(k, 2*t)
+	switch ((k % 4) + 4) % 4 {
+	case 1:
+		return complex(0, -j)
+	case 2:
+		return complex(-j, 0)
+	case 3:
+		return complex(0, j)
+	}
+	return complex(j, 0)
+}
+
+// lineErr returns the 2-norm distance of psi (on a chain, started at mid)
+// from the infinite-line amplitudes.
+func lineErr(psi []complex128, mid int, t float64) float64 {
+	var s float64
+	for i, v := range psi {
+		d := v - lineAmp(i-mid, t)
+		s += real(d)*real(d) + imag(d)*imag(d)
+	}
+	return math.Sqrt(s)
+}
+
+// TestChebPlanLine propagates on a long chain with many log-spaced times
+// (so that the planner groups the short early intervals) and checks every
+// reported state against the Bessel amplitudes of the line, the error
+// bound and the agreement with the restarting driver.
+func TestChebPlanLine(t *testing.T) {
+	const n, mid = 241, 120
+	g := graph(t, n, chainBonds(n, false), nil)
+	h := g.Hamiltonian(1)
+	// Up to t = 25 the walk does not reach the ends: J_120(50) < 1e-20
+	// (Abramowitz & Stegun 9.1.62 bound (x/2)^k/k!, from memory).
+	times := logTimes(0.01, 25, 50)
+	times = append(times[:10:10], append([]float64{times[9]}, times[10:]...)...) // a repeated time
+
+	iv, err := spectralInterval(context.Background(), h)
+	require.NoError(t, err)
+	c := newChebyshev(h, false, iv)
+	p := newChebPlan(c, times, 1e-10, 1, times[len(times)-1], len(times)-1, 1<<30)
+	grouped := 0
+	for i, e := range p.groupE {
+		if e > i {
+			grouped++
+		}
+	}
+	assert.Greater(t, grouped, 3, "the short early intervals are grouped")
+
+	var planned, restart [][]complex128
+	rec := func(dst *[][]complex128) Visit {
+		return func(k int, tk float64, psi []complex128) error {
+			assert.Equal(t, times[k], tk)
+			*dst = append(*dst, append([]complex128(nil), psi...))
+			return nil
+		}
+	}
+	tol := 1e-10 // the default tolerance
+	d, err := Propagate(context.Background(), h, Quantum, basis(n, mid), times, Settings{Method: Chebyshev, Tolerance: tol}, rec(&planned))
+	require.NoError(t, err)
+	dr, err := Propagate(context.Background(), hidden{h}, Quantum, basis(n, mid), times, Settings{Method: Chebyshev, Tolerance: tol}, rec(&restart))
+	require.NoError(t, err)
+	require.Len(t, planned, len(times))
+	assert.Less(t, d.Products, dr.Products, "grouping saves products")
+	assert.LessOrEqual(t, d.ErrorBound, tol)
+	assert.Greater(t, d.ErrorBound, 0.0)
+	for k, tk := range times {
+		// Math.Jn to ~1e-15 per entry; the propagator within tol.
+		assert.LessOrEqual(t, lineErr(planned[k], mid, tk), tol, "t=%v", tk)
+		assert.LessOrEqual(t, diffNorm(planned[k], restart[k]), 2*tol, "t=%v", tk)
+	}
+}
+
+// TestChebPlanWidens gives a group a spectral interval that misses part of
+// the spectrum: the norm check of its accumulators must widen it and every
+// time of the group must still meet the tolerance.
+func TestChebPlanWidens(t *testing.T) {
+	const n, mid = 101, 50
+	g := graph(t, n, chainBonds(n, false), nil)
+	c := newChebyshev(g.Hamiltonian(1), false, interval{lo: -1.2, hi: 1.2}) // true spectrum ≈ [−2, 2]
+	times := []float64{0.5, 2, 3}
+	p := newChebPlan(c, times, 1e-10, 1, 3, len(times), 1<<30)
+	p.groupE = []int{2, -1, -1} // one group of all three
+	psi := basis(n, mid)
+	prev := 0.0
+	var bound float64
+	for _, tk := range times {
+		_, e, err := p.advance(context.Background(), psi, tk-prev)
+		require.NoError(t, err)
+		bound += e
+		prev = tk
+		assert.LessOrEqual(t, lineErr(psi, mid, tk), 1e-10, "t=%v", tk) // the tolerance
+	}
+	assert.Greater(t, c.a, 2.0*0.999)
+	assert.LessOrEqual(t, bound, 1e-10)
+}
+
+// TestChebPlanMemoryCap checks that a memory limit too small for a second
+// accumulator leaves every time its own restarting step.
+func TestChebPlanMemoryCap(t *testing.T) {
+	const n = 500
+	g := graph(t, n, chainBonds(n, false), nil)
+	c := newChebyshev(g.Hamiltonian(1), false, interval{lo: -2, hi: 2})
+	times := logTimes(0.01, 10, 30)
+	p := newChebPlan(c, times, 1e-10, 1, 10, len(times), 10*16*n-1) // 10%: just under one vector
+	for i, e := range p.groupE {
+		assert.Equal(t, i, e)
+	}
+	assert.Len(t, p.accs, 1)
+	p = newChebPlan(c, times, 1e-10, 1, 10, len(times), 1<<30)
+	assert.Len(t, p.accs, planMaxAcc)
+	assert.LessOrEqual(t, planExtraVectors, 2, "EstimateBytes stays below 10 vectors (TestEstimateBytes)")
+}
+
+// TestChebPlanReproducible checks bit-identical planned results for a given
+// worker count and agreement across worker counts.
+func TestChebPlanReproducible(t *testing.T) {
+	g, err := lattice.Gasket(8) // 9843 sites: more than one row block
+	require.NoError(t, err)
+	n := g.Len()
+	times := logTimes(0.1, 20, 25)
+	run := func(w int) [][]complex128 {
+		var out [][]complex128
+		_, err := QuantumWalk(context.Background(), g, 1, basis(n, 0), times, Settings{Method: Chebyshev, Workers: w}, func(_ int, _ float64, psi []complex128) error {
+			out = append(out, append([]complex128(nil), psi...))
+			return nil
+		})
+		require.NoError(t, err)
+		return out
+	}
+	a1, a2 := run(1), run(1)
+	assert.Equal(t, a1, a2)
+	b1, b2 := run(2), run(2)
+	assert.Equal(t, b1, b2)
+	for k := range times {
+		assert.LessOrEqual(t, diffNorm(a1[k], b1[k]), 1e-10) // the default tolerance
+	}
+}
+
+// TestChebPlanCancel cancels inside a group's recurrence: no state of the
+// group may be reported.
+func TestChebPlanCancel(t *testing.T) {
+	const n, mid = 3001, 1500
+	g := graph(t, n, chainBonds(n, false), nil)
+	times := []float64{100, 110, 120} // a·Δ ≤ 360 < maxSegment: one group
+	ctx := &countCtx{Context: context.Background(), after: 3}
+	d, err := Propagate(ctx, g.Hamiltonian(1), Quantum, basis(n, mid), times, Settings{Method: Chebyshev}, func(int, float64, []complex128) error {
+		t.Fatal("no state may be reported after cancellation")
+		return nil
+	})
+	require.ErrorIs(t, err, context.Canceled)
+	assert.Less(t, d.Products, 200, "stopped early")
+}
+
+// TestChebPlanAllocatesNothing checks that a warmed-up group allocates
+// nothing (the per-term loop reuses the plan's slices).
+func TestChebPlanAllocatesNothing(t *testing.T) {
+	g, err := lattice.Gasket(5)
+	require.NoError(t, err)
+	n := g.Len()
+	h := g.Hamiltonian(1)
+	iv, err := spectralInterval(context.Background(), h)
+	require.NoError(t, err)
+	c := newChebyshev(h, false, iv)
+	us := []float64{0.5, 1, 2}
+	p := newChebPlan(c, us, 1e-10, 1, 2, 3, 1<<30)
+	psi := basis(n, 0)
+	_, _, err = p.group(context.Background(), psi, 0, us) // warm up
+	require.NoError(t, err)
+	allocs := testing.AllocsPerRun(5, func() {
+		if _, _, err := p.group(context.Background(), psi, 0, us); err != nil {
+			t.Fatal(err)
+		}
+	})
+	assert.Equal(t, 0.0, allocs)
+}
+
+// BenchmarkChebMultiAccumulators times one fused recurrence step on the
+// gasket g = 10 feeding 1, 2 and 3 accumulators: the differences give the
+// cost of an accumulator update relative to a step (planAccWeight).
+func BenchmarkChebMultiAccumulators(b *testing.B) {
+	g, err := lattice.Gasket(10)
+	if err != nil {
+		b.Fatal(err)
+	}
+	m := g.Hamiltonian(1)
+	n := m.N
+	cur, prev := make([]complex128, n), make([]complex128, n)
+	for i := range cur {
+		cur[i] = complex(float64(i%7)*1e-3, 1e-3)
+	}
+	for _, q := range []int{1, 2, 3} {
+		accs := make([][]complex128, q)
+		coefs := make([]complex128, q)
+		for i := range accs {
+			accs[i] = make([]complex128, n)
+			coefs[i] = complex(1e-3, 1e-3)
+		}
+		b.Run(string(rune('0'+q)), func(b *testing.B) {
+			for range b.N {
+				m.ChebNextMulti(prev, cur, prev, accs, 1.0/3, 1, coefs)
+			}
+		})
+	}
+}
