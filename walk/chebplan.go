@@ -25,11 +25,11 @@ import (
 // group, the errors along any chain of groups still sum to at most tol.
 
 // planAccWeight is the cost of one accumulator update relative to one
-// fused recurrence step (a product). Measured with
-// BenchmarkChebMultiAccumulators on the gasket g = 10, 2 workers (18:20
-// UTC, 2026-12-01): 414 µs for a step feeding one accumulator, +105 µs for
-// a second and +190 µs for a third, ≈ 0.23–0.25 per update, close to the
-// counted traffic 32/116 ≈ 0.28 bytes a row (benchdata/RESULTS.md).
+// product. Measured with BenchmarkChebMultiAccumulators, 2 workers
+// (2026-12-01, 18:20 UTC): on the gasket g = 10 a step feeding one
+// accumulator takes 0.39 ms, each further accumulator +0.10 ms (≈ 0.25);
+// on g = 12 4.4 ms and +1.7 ms (≈ 0.38). In propbench (benchdata/RESULTS.md)
+// 0.25 beat 0.4 on both g = 10 and g = 12.
 const planAccWeight = 0.25
 
 // planMaxAcc is the largest number of reported times one expansion serves.
@@ -254,22 +254,35 @@ func (p *chebPlan) series(ctx context.Context, psi []complex128, accs, coef [][]
 	}
 	s := 1 / c.a
 	a, cs := active(1)
-	c.csr.ChebFirstMulti(c.t1, psi, a, s, c.b, cs)
+	if len(a) == 1 {
+		c.csr.ChebFirst(c.t1, psi, a[0], s, c.b, cs[0])
+	} else {
+		c.csr.ChebFirstMulti(c.t1, psi, a, s, c.b, cs)
+	}
 	if K == 1 {
 		return 1, nil
 	}
-	a, cs = active(2)
-	c.csr.ChebNextMulti(c.t2, c.t1, psi, a, s, c.b, cs)
-	prev, cur := c.t1, c.t2
-	for k := 3; k <= K; k++ {
+	prev, cur := psi, c.t1
+	dst := c.t2
+	for k := 2; k <= K; k++ {
 		if k%cancelEvery == 0 {
 			if err := ctx.Err(); err != nil {
 				return k - 1, cancelled(err)
 			}
 		}
 		a, cs = active(k)
-		c.csr.ChebNextMulti(prev, cur, prev, a, s, c.b, cs)
-		prev, cur = cur, prev
+		// One active series (the longest, once the shorter have ended)
+		// takes the single-accumulator kernel, which is faster than the
+		// multi kernel with one accumulator (BenchmarkChebMultiAccumulators).
+		if len(a) == 1 {
+			c.csr.ChebNext(dst, cur, prev, a[0], s, c.b, cs[0])
+		} else {
+			c.csr.ChebNextMulti(dst, cur, prev, a, s, c.b, cs)
+		}
+		// The next term overwrites the older vector (psi is prev only at
+		// k = 2 and is never overwritten).
+		prev, cur = cur, dst
+		dst = prev
 	}
 	return K, nil
 }

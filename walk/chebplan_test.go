@@ -200,7 +200,8 @@ func TestChebPlanAllocatesNothing(t *testing.T) {
 
 // BenchmarkChebMultiAccumulators times one fused recurrence step on the
 // gasket g = 10 feeding 1, 2 and 3 accumulators: the differences give the
-// cost of an accumulator update relative to a step (planAccWeight).
+// cost of an accumulator update relative to a step (planAccWeight);
+// "single" is the restarting driver's ChebNext.
 func BenchmarkChebMultiAccumulators(b *testing.B) {
 	g, err := lattice.Gasket(10)
 	if err != nil {
@@ -212,6 +213,12 @@ func BenchmarkChebMultiAccumulators(b *testing.B) {
 	for i := range cur {
 		cur[i] = complex(float64(i%7)*1e-3, 1e-3)
 	}
+	acc0 := make([]complex128, n)
+	b.Run("single", func(b *testing.B) {
+		for range b.N {
+			m.ChebNext(prev, cur, prev, acc0, 1.0/3, 1, complex(1e-3, 1e-3))
+		}
+	})
 	for _, q := range []int{1, 2, 3} {
 		accs := make([][]complex128, q)
 		coefs := make([]complex128, q)
