@@ -714,6 +714,21 @@ for dyn in ("quantum", "classical"):
     walk_case("graph-64d-near-%s" % dyn, lat, pos, bonds, nearest(pos, pt), [0.3, 1.1, 2.9], dyn=dyn,
               start={"near": pt}, report=("msd", "return", "populations", "spread"))
 
+# many reported times in one Chebyshev job (grouped expansions): linear,
+# dense, log, repeated and random grids on a gasket with on-site energies
+pos, bonds = gasket(5)
+grng = np.random.default_rng(8)
+ons = grng.uniform(-1, 1, len(pos))
+latg = {"kind": "graph", "sites": len(pos), "bonds": [[a, b, 1.0] for a, b, w in bonds], "onsite": [float(e) for e in ons]}
+grids = {"lin": list(np.linspace(0, 20, 41)), "dense": list(np.linspace(5, 5.5, 30)), "log": list(np.logspace(-3, 2, 40)),
+         "rep": [0, 0, 1, 1, 1, 2.5, 2.5, 7, 7.000001, 30], "rand": sorted(grng.uniform(0, 50, 25).tolist())}
+for gname, gts in grids.items():
+    gts = [float(t) for t in gts]
+    for tol in (1e-10, 1e-6):
+        walk_case("grid-%s-%g-chebyshev" % (gname, tol), latg, pos, bonds, 7, gts, gamma=0.8, onsite=ons, method="chebyshev",
+                  tol=tol, report=("return", "populations"), atol=2 * tol + 1e-12,
+                  source="numpy.linalg.eigh; populations within 2·tolerance (|p−p'| ≤ 2‖ψ−ψ'‖, common practice)")
+
 # 13. the contract's own example requests, literally
 pos, bonds = gasket_doc_order(6)
 s0 = nearest(pos, (0, 0))
