@@ -333,3 +333,15 @@ func TestFixGraphBondsRequired(t *testing.T) {
 	require.Nil(t, res[1]["error"], "%v", res[1])
 	assert.Equal(t, 1.0, res[1]["return"].([]any)[0])
 }
+
+func TestFixClassicalVeryLongTimeAuto(t *testing.T) {
+	// Classical walk on the 3-cube at t = 10¹²: the stationary distribution
+	// is uniform, 1/8 per site (common practice). The dense eigensystem's
+	// bound grows like t (audit O8); under auto the walk is rerun with Krylov
+	// instead of being refused.
+	r := fixServe(t, `{"id":"x","lattice":{"kind":"hypercube","dimension":3},"dynamics":"classical","start":{"site":0},"times":[1e12],"report":["populations"]}`)[0]
+	require.Nil(t, r["error"], "%v", r)
+	for _, p := range r["populations"].([]any)[0].([]any) {
+		assert.InDelta(t, 0.125, p, 1e-12)
+	}
+}

@@ -526,3 +526,12 @@ func checkNear(field string, near []float64) error {
 	}
 	return nil
 }
+
+// autoLoose reports whether a successful propagation under method "auto"
+// came back with an error bound beyond what the job accepts
+// (maxErrorBound): the dense eigensystem's bound grows like t·‖HV − VΛ‖
+// even where the state does not (classical walks at very long times), and
+// Krylov may bound the same step tightly.
+func (j *Job) autoLoose(set Settings, d Diagnostics, err error) bool {
+	return err == nil && set.Method == Auto && d.ErrorBound > maxErrorBound(j.Tolerance)
+}

@@ -153,7 +153,8 @@ package walk
 // ‖H‖·t_max) is refused as "too-large", field "method". A reported time
 // with ‖H‖·t < 2⁻⁵³ is propagated as t = 0 (the propagator is the identity
 // to rounding; the response echoes the time as given), and when the method
-// "auto" chose fails its own check the walk runs once more with "krylov".
+// "auto" chose fails its own check, or returns an error bound above that
+// threshold, the walk runs once more with "krylov".
 // With disorder, "realisations" gives the count and, when it is above 1,
 // every output X gets "X_err", the standard error of the mean
 // (populations_err, polya_err, average_err, correlations_err,

@@ -345,11 +345,12 @@ func (j *Job) evolve(ctx context.Context, g *lattice.Graph, s0 int, times []floa
 				return visit(k, clampProbabilities(observables.Probabilities(p, state)))
 			})
 		}
-		if attempt > 0 || !autoRetry(ctx, set, err) {
+		if attempt > 0 || !(autoRetry(ctx, set, err) || j.autoLoose(set, d, err)) {
 			break
 		}
-		// Auto's choice failed its own check: the whole walk again with
-		// Krylov (every reported time is visited again and overwritten).
+		// Auto's choice failed its own check, or its error bound is beyond
+		// what the job accepts: the whole walk again with Krylov (every
+		// reported time is visited again and overwritten).
 		set.Method = Krylov
 	}
 	if err != nil {
