@@ -972,3 +972,22 @@ func TestAuditSmallTimes(t *testing.T) {
 		}
 	}
 }
+
+// TestAuditClassicalEquilibrium checks very long classical times: every
+// mode of −γL but the constant one decays, so p(t) is the uniform
+// distribution on the start's component (1/8 on the 3-cube) to round-off.
+func TestAuditClassicalEquilibrium(t *testing.T) {
+	var reqs []any
+	for _, tt := range []float64{1e6, 1e12, 1e300} {
+		for _, m := range []string{"auto", "krylov"} {
+			reqs = append(reqs, map[string]any{"id": fmt.Sprintf("%s-%g", m, tt), "lattice": map[string]any{"kind": "hypercube", "dimension": 3},
+				"dynamics": "classical", "start": map[string]any{"site": 0}, "times": []float64{tt}, "method": m, "report": []string{"populations"}})
+		}
+	}
+	for _, r := range auditLines(t, reqs...) {
+		require.Nil(t, r["error"], "%v", r)
+		for _, p := range r["populations"].([]any)[0].([]any) {
+			assert.InDelta(t, 0.125, p, 1e-10, "%s", r["id"]) // default tolerance (contract)
+		}
+	}
+}
