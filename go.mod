@@ -3,9 +3,8 @@ module github.com/ampwalk/ampwalk
 go 1.26
 
 require (
-	github.com/stretchr/testify v1.12.1 // indirect
-	golang.org/x/exp v0.0.0-20261113113407-e3970619a1a4 // indirect
-	gonum.org/v1/gonum v0.17.0 // indirect
+	github.com/stretchr/testify v1.12.1
+	gonum.org/v1/gonum v0.17.0
 )
 
 require go.yaml.in/yaml/v3 v3.0.5 // indirect
