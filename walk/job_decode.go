@@ -112,18 +112,9 @@ func (job *Job) decodeWalkJob(o *object) error {
 	if job.Times, err = decodeTimes(raw); err != nil {
 		return err
 	}
-	if raw, ok := o.take("tolerance"); ok {
-		v, err := number("tolerance", raw)
-		if err != nil || v <= 0 || v > 0.1 {
-			return fault.New("tolerance", "must be a number greater than 0 and at most 0.1; got %s", describe(raw))
-		}
-		job.Tolerance = v
-	}
-	var method string
-	if err := o.choice("method", &method, "auto", "exact", "krylov", "chebyshev"); err != nil {
+	if err := job.decodeTolMethod(o); err != nil {
 		return err
 	}
-	job.Method = map[string]Method{"": Auto, "auto": Auto, "exact": Exact, "krylov": Krylov, "chebyshev": Chebyshev}[method]
 	if raw, ok := o.take("report"); ok {
 		items, err := list("report", raw)
 		if err != nil {
@@ -550,5 +541,23 @@ func (job *Job) decodeSpectrumJob(o *object) error {
 		return fault.New("spectrum", "must ask for at least one of eigenvalues, dos, ratio, box_dimension, ipr, window, ldos, sectors, spectral_dimension, bands")
 	}
 	job.Spectrum = s
+	return nil
+}
+
+// decodeTolMethod reads tolerance (in (0, 0.1]) and method, for walk, plan
+// and measurement jobs.
+func (job *Job) decodeTolMethod(o *object) error {
+	if raw, ok := o.take("tolerance"); ok {
+		v, err := number("tolerance", raw)
+		if err != nil || v <= 0 || v > 0.1 {
+			return fault.New("tolerance", "must be a number greater than 0 and at most 0.1; got %s", describe(raw))
+		}
+		job.Tolerance = v
+	}
+	var method string
+	if err := o.choice("method", &method, "auto", "exact", "krylov", "chebyshev"); err != nil {
+		return err
+	}
+	job.Method = map[string]Method{"": Auto, "auto": Auto, "exact": Exact, "krylov": Krylov, "chebyshev": Chebyshev}[method]
 	return nil
 }

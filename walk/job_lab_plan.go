@@ -72,24 +72,6 @@ func registeredPlanner() Planner {
 	return planner
 }
 
-// decodeTolMethod reads tolerance (in (0, 0.1]) and method, for walk, plan
-// and measurement jobs.
-func (job *Job) decodeTolMethod(o *object) error {
-	if raw, ok := o.take("tolerance"); ok {
-		v, err := number("tolerance", raw)
-		if err != nil || v <= 0 || v > 0.1 {
-			return fault.New("tolerance", "must be a number greater than 0 and at most 0.1; got %s", describe(raw))
-		}
-		job.Tolerance = v
-	}
-	var method string
-	if err := o.choice("method", &method, "auto", "exact", "krylov", "chebyshev"); err != nil {
-		return err
-	}
-	job.Method = map[string]Method{"": Auto, "auto": Auto, "exact": Exact, "krylov": Krylov, "chebyshev": Chebyshev}[method]
-	return nil
-}
-
 // decodePlanJob reads a plan job: a positions lattice, start, plan and
 // optionally fabrication, tolerance and method.
 func (job *Job) decodePlanJob(o *object) error {
