@@ -116,11 +116,11 @@ func gemmSerial(tA, tB bool, m, n, k int, alpha float64, a []float64, lda int, b
 					mh := min(mr, mb-t*mr)
 					as := ap[t*kb*mr : (t+1)*kb*mr]
 					if mh == mr && nw == nr {
-						kern6xN(nr, kb, as, bs, c[i0*ldc+j0:], ldc)
+						kern6xN(nr, kb, as, bs, nr, c[i0*ldc+j0:], ldc)
 						continue
 					}
 					clear(tmp[:])
-					kern6xN(nr, kb, as, bs, tmp[:], nr)
+					kern6xN(nr, kb, as, bs, nr, tmp[:], nr)
 					for i := 0; i < mh; i++ {
 						row := c[(i0+i)*ldc+j0 : (i0+i)*ldc+j0+nw]
 						for j := range row {

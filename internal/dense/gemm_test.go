@@ -85,8 +85,8 @@ func TestKernelGoMatchesDispatch(t *testing.T) {
 	}
 	c1 := make([]float64, 6*10)
 	c2 := make([]float64, 6*10)
-	kern6x8(k, a, b, c1, 10)
-	kern6x8go(k, a, b, c2, 10)
+	kern6x8(k, a, b, 8, c1, 10)
+	kern6x8go(k, a, b, 8, c2, 10)
 	for i := range c1 {
 		// Both sum k = 37 products of numbers in [0,1): FMA vs separate rounding (common practice).
 		if math.Abs(c1[i]-c2[i]) > 1e-13 {

@@ -1,7 +1,7 @@
 package dense
 
 //go:noescape
-func kern6x8avx(k int, a, b, c *float64, ldc int)
+func kern6x8avx(k int, a, b, c *float64, ldb, ldc int)
 
 func cpuid(eaxArg, ecxArg uint32) (eax, ebx, ecx, edx uint32)
 func xgetbv() (eax, edx uint32)
@@ -26,7 +26,7 @@ var hasAVX2FMA = func() bool {
 }()
 
 //go:noescape
-func kern6x16avx512(k int, a, b, c *float64, ldc int)
+func kern6x16avx512(k int, a, b, c *float64, ldb, ldc int)
 
 // hasAVX512 reports AVX-512F with OS support of the ZMM state (CPUID leaf 7
 // EBX bit 16; XCR0 bits 5–7), on top of AVX2/FMA.
@@ -50,32 +50,33 @@ var panelWidth = func() int {
 	return 8
 }()
 
-// kern6xN is C[0:6, 0:nr] += Σ_p a[6p:6p+6] ⊗ b[nr·p:nr·p+nr] for the
-// micro-tile width nr = panelWidth.
-func kern6xN(nr, k int, a, b, c []float64, ldc int) {
+// kern6xN is C[0:6, 0:nr] += Σ_p a[6p:6p+6] ⊗ b[ldb·p:ldb·p+nr] for the
+// micro-tile width nr = panelWidth (ldb = nr for a packed strip).
+func kern6xN(nr, k int, a, b []float64, ldb int, c []float64, ldc int) {
 	if nr == 16 {
 		if k > 0 {
 			_ = a[6*k-1]
-			_ = b[16*k-1]
+			_ = b[(k-1)*ldb+15]
 			_ = c[5*ldc+15]
-			kern6x16avx512(k, &a[0], &b[0], &c[0], ldc)
+			kern6x16avx512(k, &a[0], &b[0], &c[0], ldb, ldc)
 		}
 		return
 	}
-	kern6x8(k, a, b, c, ldc)
+	kern6x8(k, a, b, ldb, c, ldc)
 }
 
-// kern6x8 is C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[8p:8p+8] for C row-major
-// with stride ldc; len(a) ≥ 6k, len(b) ≥ 8k, len(c) ≥ 5·ldc + 8.
-func kern6x8(k int, a, b, c []float64, ldc int) {
+// kern6x8 is C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[ldb·p:ldb·p+8] for C
+// row-major with stride ldc; len(a) ≥ 6k, len(b) ≥ ldb·(k−1) + 8,
+// len(c) ≥ 5·ldc + 8.
+func kern6x8(k int, a, b []float64, ldb int, c []float64, ldc int) {
 	if hasAVX2FMA && k > 0 {
 		_ = a[6*k-1]
-		_ = b[8*k-1]
+		_ = b[(k-1)*ldb+7]
 		_ = c[5*ldc+7]
-		kern6x8avx(k, &a[0], &b[0], &c[0], ldc)
+		kern6x8avx(k, &a[0], &b[0], &c[0], ldb, ldc)
 		return
 	}
-	kern6x8go(k, a, b, c, ldc)
+	kern6x8go(k, a, b, ldb, c, ldc)
 }
 
 //go:noescape

@@ -1,15 +1,18 @@
 #include "textflag.h"
 
-// func kern6x8avx(k int, a, b, c *float64, ldc int)
+// func kern6x8avx(k int, a, b, c *float64, ldb, ldc int)
 //
-// C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[8p:8p+8] with C row-major (stride ldc).
+// C[0:6, 0:8] += Σ_p a[6p:6p+6] ⊗ b[ldb·p:ldb·p+8] with C row-major (stride
+// ldc); ldb = 8 for a packed strip.
 // Twelve YMM accumulators, two B loads and one broadcast per row per step.
-TEXT ·kern6x8avx(SB), NOSPLIT, $0-40
+TEXT ·kern6x8avx(SB), NOSPLIT, $0-48
 	MOVQ k+0(FP), CX
 	MOVQ a+8(FP), SI
 	MOVQ b+16(FP), DI
 	MOVQ c+24(FP), DX
-	MOVQ ldc+32(FP), R8
+	MOVQ ldb+32(FP), R9
+	SHLQ $3, R9
+	MOVQ ldc+40(FP), R8
 	SHLQ $3, R8
 	VXORPD Y0, Y0, Y0
 	VXORPD Y1, Y1, Y1
@@ -48,7 +51,7 @@ loop:
 	VFMADD231PD  Y12, Y15, Y10
 	VFMADD231PD  Y13, Y15, Y11
 	ADDQ         $48, SI
-	ADDQ         $64, DI
+	ADDQ         R9, DI
 	DECQ         CX
 	JNZ          loop
 
@@ -85,16 +88,18 @@ store:
 	VZEROUPPER
 	RET
 
-// func kern6x16avx512(k int, a, b, c *float64, ldc int)
+// func kern6x16avx512(k int, a, b, c *float64, ldb, ldc int)
 //
-// C[0:6, 0:16] += Σ_p a[6p:6p+6] ⊗ b[16p:16p+16] with C row-major (stride
-// ldc). Twelve ZMM accumulators; AVX-512F only.
-TEXT ·kern6x16avx512(SB), NOSPLIT, $0-40
+// C[0:6, 0:16] += Σ_p a[6p:6p+6] ⊗ b[ldb·p:ldb·p+16] with C row-major
+// (stride ldc); ldb = 16 for a packed strip. Twelve ZMM accumulators; AVX-512F only.
+TEXT ·kern6x16avx512(SB), NOSPLIT, $0-48
 	MOVQ   k+0(FP), CX
 	MOVQ   a+8(FP), SI
 	MOVQ   b+16(FP), DI
 	MOVQ   c+24(FP), DX
-	MOVQ   ldc+32(FP), R8
+	MOVQ   ldb+32(FP), R9
+	SHLQ   $3, R9
+	MOVQ   ldc+40(FP), R8
 	SHLQ   $3, R8
 	VPXORQ Z0, Z0, Z0
 	VPXORQ Z1, Z1, Z1
@@ -133,7 +138,7 @@ loop512:
 	VFMADD231PD  Z12, Z15, Z10
 	VFMADD231PD  Z13, Z15, Z11
 	ADDQ         $48, SI
-	ADDQ         $128, DI
+	ADDQ         R9, DI
 	DECQ         CX
 	JNZ          loop512
 

@@ -1,0 +1,5 @@
+//go:build !race
+
+package dense
+
+const raceEnabled = false
