@@ -3,6 +3,10 @@ package walk
 import (
 	"context"
 	"math"
+	"math/cmplx"
+	"unsafe"
+
+	dk "github.com/ampwalk/ampwalk/internal/dense"
 )
 
 // Planning Chebyshev expansions over the reported times (quantum walk on a
@@ -13,33 +17,44 @@ import (
 // are short. A group of consecutive reported times u_{s+1} < … < u_e is
 // instead served by one recurrence from the state at u_s: the series runs
 // to the K_e of the longest span and each time u_j has its own accumulator
-// with the coefficients of its own span Δ_j = u_j − u_s (phase e^{−ibΔ_j},
-// J_k(aΔ_j)), updated only while k ≤ K_j (sparse.CSR.ChebNextMulti). The
-// groups are chosen by dynamic programming over consecutive times with the
-// cost K_e + w·Σ_{j<e} K_j (products plus accumulator updates weighted by
-// planAccWeight), at most planMaxAcc times per group and no group spanning
-// more than maxSegment in a·Δ.
+// with the coefficients of its own span Δ_j = u_j − u_s, updated while
+// k ≤ K_j. The groups are chosen by dynamic programming over consecutive
+// times with the cost K_e + w·Σ_{j<e} K_j (products plus accumulator updates
+// weighted by planAccWeight), at most planMaxAcc times per group and no
+// group spanning more than maxGroupSpan in a·Δ.
+//
+// A group runs the rotated recurrence S_k = (−i)^k T_k(H̃)ψ
+// (sparse.CSR.ChebNextRot), whose series coefficients J_0, 2J_1, 2J_2, …
+// are real (the phase e^{−ibΔ_j} is applied once at the end). The last
+// planRing terms are kept in a ring, and every planRing terms all
+// accumulators take them at once: acc_j += Σ_k r_{jk} S_k is a real matrix
+// product (dense.AddProd, complex vectors read as pairs of reals) that
+// streams each accumulator through memory once per planRing terms instead
+// of once per term.
 //
 // Each time keeps the error budget tol·(0.5·Δ_j/t_max + 0.5/steps) of the
-// restarting driver; since a group's later times do not feed any later
-// group, the errors along any chain of groups still sum to at most tol.
+// restarting driver. The error of a reported state is that of its group's
+// starting state plus its own tail, so along any chain of groups the
+// budgets sum to at most tol; advance reports that chain bound.
 
 // planAccWeight is the cost of one accumulator update relative to one
-// product. Measured with BenchmarkChebMultiAccumulators, 2 workers
-// (2026-12-01, 18:20 UTC): on the gasket g = 10 a step feeding one
-// accumulator takes 0.39 ms, each further accumulator +0.10 ms (≈ 0.25);
-// on g = 12 4.4 ms and +1.7 ms (≈ 0.38). In propbench (benchdata/RESULTS.md)
-// 0.25 beat 0.4 on both g = 10 and g = 12.
-const planAccWeight = 0.25
+// product (see BenchmarkChebGroupTerm).
+const planAccWeight = 0.02
 
-// planMaxAcc is the largest number of reported times one expansion serves.
-// Beyond the driver's one accumulator the others are counted by
-// EstimateBytes (planExtraVectors). benchdata/chebyshev_terms.py puts 3
-// within 1% of 8 in cost for the benchmark jobs.
+// planMaxAcc is the largest number of reported times one expansion serves
+// (one row tile of dense's 6-row micro-kernel), planRing the number of
+// terms stored between two accumulations. EstimateBytes counts both;
+// planExtraVectors is what a plan adds to the restarting driver's three
+// work vectors (two recurrence vectors and an accumulator).
 const (
-	planMaxAcc       = 3
-	planExtraVectors = planMaxAcc - 1
+	planMaxAcc       = 6
+	planRing         = 8
+	planExtraVectors = planMaxAcc + planRing - 3
 )
+
+// maxGroupSpan is the largest a·Δ one group's series covers; it bounds
+// the coefficient arrays (planMaxAcc·maxGroupSpan values).
+const maxGroupSpan = 20000
 
 // chebPlan drives the grouped expansions for propagate.
 type chebPlan struct {
@@ -50,22 +65,30 @@ type chebPlan struct {
 	tmax   float64
 	nsteps int
 
-	next   int // index in u of the next time to reach
-	gs     int // u[gs..ready] are held in accs[0..ready−gs]
-	ready  int // (ready < next: none held)
-	accs   [][]complex128
-	coefs  [][]complex128
+	next   int       // index in u of the next time to reach
+	gs     int       // u[gs..ready] are held in accs[0..ready−gs]
+	ready  int       // (ready < next: none held)
+	errNow float64   // error bound of the last state delivered
+	errs   []float64 // error bounds of the held states
+
+	accs    [][]complex128 // views of accBuf
+	accBuf  []complex128   // maxAcc·n, one accumulator after another
+	ring    []complex128   // planRing·n, the stored terms S_k
+	workers int
+
+	coefs  [][]float64 // real series coefficients per time
+	phases []complex128
 	bounds []float64
-	// the active accumulators and their coefficients at one term
-	actA [][]complex128
-	actC []complex128
+	mat    []float64 // the coefficient block of one accumulation
 }
 
 // newChebPlan plans the groups for the times of a propagation from a state
-// of norm norm0 > 0. memLimit caps the accumulators beyond the first at 10%
-// of it.
+// of norm norm0 > 0. The group workspace (planExtraVectors vectors) may take
+// at most 10% of memLimit; when it does not fit, every time gets its own
+// restarting step. A plan with groups takes over the driver's work vectors
+// (c.t1, c.t2 become ring slots, c.acc the first accumulator).
 func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nsteps int, memLimit int64) *chebPlan {
-	p := &chebPlan{c: c, tolAbs: tolAbs, tmax: tmax, nsteps: nsteps, ready: -1}
+	p := &chebPlan{c: c, tolAbs: tolAbs, tmax: tmax, nsteps: nsteps, ready: -1, workers: c.csr.Workers}
 	prev := 0.0
 	for _, t := range times {
 		if t > prev {
@@ -73,21 +96,32 @@ func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nst
 			prev = t
 		}
 	}
-	n := len(c.acc)
+	n := c.op.Len()
 	maxAcc := planMaxAcc
-	if extra := memLimit / 10 / (16 * int64(max(n, 1))); extra < int64(maxAcc-1) {
-		maxAcc = 1 + int(max(extra, 0))
+	if memLimit/10 < int64(planExtraVectors)*16*int64(max(n, 1)) {
+		maxAcc = 1
 	}
 	p.groupE = planGroups(c, p.u, maxAcc, func(span float64) float64 { return p.tol(span) / norm0 })
-	p.accs = make([][]complex128, 0, maxAcc)
-	p.accs = append(p.accs, c.acc)
-	for len(p.accs) < maxAcc {
-		p.accs = append(p.accs, nil)
+	used := 1
+	for i, e := range p.groupE {
+		used = max(used, e-i+1)
 	}
-	p.coefs = make([][]complex128, maxAcc)
-	p.bounds = make([]float64, maxAcc)
-	p.actA = make([][]complex128, 0, maxAcc)
-	p.actC = make([]complex128, 0, maxAcc)
+	if used == 1 {
+		return p
+	}
+	used = planMaxAcc // accumulate runs on whole 6-row tiles
+	p.accBuf = make([]complex128, used*n)
+	p.ring = make([]complex128, planRing*n)
+	p.accs = make([][]complex128, used)
+	for q := range p.accs {
+		p.accs[q] = p.accBuf[q*n : (q+1)*n]
+	}
+	c.t1, c.t2, c.acc = p.ring[:n], p.ring[n:2*n], p.accs[0]
+	p.errs = make([]float64, used)
+	p.coefs = make([][]float64, used)
+	p.phases = make([]complex128, used)
+	p.bounds = make([]float64, used)
+	p.mat = make([]float64, planMaxAcc*planRing)
 	return p
 }
 
@@ -105,7 +139,7 @@ func planGroups(c *chebyshev, u []float64, maxAcc int, tol func(float64) float64
 	ts := make([]float64, m+1) // ts[0] = 0, ts[i+1] = u[i]
 	copy(ts[1:], u)
 	terms := func(span float64) float64 {
-		nseg := max(1, int(math.Ceil(c.a*span/maxSegment)))
+		nseg := max(1, int(math.Ceil(c.a*span/maxGroupSpan)))
 		h := span / float64(nseg)
 		K, _ := c.coefficients(h, tol(span)/float64(nseg))
 		return float64(nseg * K)
@@ -115,7 +149,7 @@ func planGroups(c *chebyshev, u []float64, maxAcc int, tol func(float64) float64
 	for e := 1; e <= m; e++ {
 		best[e] = math.Inf(1)
 		for s := e - 1; s >= max(0, e-maxAcc); s-- {
-			if e-s >= 2 && c.a*(ts[e]-ts[s]) > maxSegment {
+			if e-s >= 2 && c.a*(ts[e]-ts[s]) > maxGroupSpan {
 				break
 			}
 			cost := terms(ts[e] - ts[s])
@@ -137,152 +171,179 @@ func planGroups(c *chebyshev, u []float64, maxAcc int, tol func(float64) float64
 	return groupE
 }
 
-// advance sets psi to the state at the next distinct reported time t,
-// from psi at the previous one. It returns the products and the error
-// bound added (the tails of every accumulator of a new group).
+// advance sets psi to the state at the next distinct reported time from
+// psi at the previous one (dt apart). It returns the products and the error
+// bound of the new state (its group start's bound plus its own tail).
 func (p *chebPlan) advance(ctx context.Context, psi []complex128, dt float64) (int, float64, error) {
 	i := p.next
 	p.next++
 	if i <= p.ready {
 		copy(psi, p.accs[i-p.gs])
-		return 0, 0, nil
+		p.errNow = p.errs[i-p.gs]
+		return 0, p.errNow, nil
 	}
 	e := p.groupE[i]
 	if e <= i {
 		// A single time: the restarting step, as without planning.
-		return p.c.step(ctx, psi, dt, p.tol(dt))
+		prods, b, err := p.c.step(ctx, psi, dt, p.tol(dt))
+		p.errNow += b
+		return prods, p.errNow, err
 	}
 	start := 0.0
 	if i > 0 {
 		start = p.u[i-1]
 	}
-	prods, bound, err := p.group(ctx, psi, start, p.u[i:e+1])
+	prods, err := p.group(ctx, psi, start, p.u[i:e+1])
 	if err != nil {
-		return prods, bound, err
+		return prods, p.errNow, err
+	}
+	for q := range e - i + 1 {
+		p.errs[q] = p.errNow + p.bounds[q]
 	}
 	p.gs, p.ready = i, e
 	copy(psi, p.accs[0])
-	return prods, bound, nil
+	p.errNow = p.errs[0]
+	return prods, p.errNow, nil
 }
 
 // group fills p.accs[q] with the state at us[q] from psi at start (psi is
-// left unchanged), widening the spectral interval when a result fails the
-// norm check as segment does.
-func (p *chebPlan) group(ctx context.Context, psi []complex128, start float64, us []float64) (int, float64, error) {
+// left unchanged) and p.bounds[q] with its truncation bound, widening the
+// spectral interval when a result fails the norm check as segment does.
+func (p *chebPlan) group(ctx context.Context, psi []complex128, start float64, us []float64) (int, error) {
 	c := p.c
-	n := len(psi)
 	m := len(us)
-	for q := 1; q < m; q++ {
-		if p.accs[q] == nil {
-			p.accs[q] = make([]complex128, n)
-		}
-	}
-	accs := p.accs[:m]
 	norm := nrm2(psi)
 	if norm == 0 {
-		for _, a := range accs {
-			clear(a)
+		for q := range m {
+			clear(p.accs[q])
+			p.bounds[q] = 0
 		}
-		return 0, 0, nil
+		return 0, nil
 	}
 	var prods int
 	for try := 0; ; try++ {
-		var bound float64
-		bounds := p.bounds[:m]
 		for q, t := range us {
 			h := t - start
 			K, b := c.coefficients(h, p.tol(h)/norm)
-			p.coefs[q] = append(p.coefs[q][:0], c.coef[:K+1]...)
-			bounds[q] = b * norm
-			bound += b * norm
+			co := p.coefs[q][:0]
+			for k, v := range c.bes[:K+1] {
+				if k > 0 {
+					v *= 2
+				}
+				co = append(co, v)
+			}
+			p.coefs[q] = co
+			p.phases[q] = cmplx.Exp(complex(0, -c.b*h))
+			p.bounds[q] = b * norm
 		}
-		K, err := p.series(ctx, psi, accs, p.coefs[:m])
+		K, err := p.series(ctx, psi, m, try > 0)
 		prods += K
 		if err != nil {
-			return prods, 0, err
+			return prods, err
 		}
 		bad := false
-		for q, a := range accs {
+		for q, a := range p.accs[:m] {
+			ph := p.phases[q]
+			for i, v := range a {
+				a[i] = v * ph
+			}
 			after := nrm2(a)
 			if math.IsNaN(after) || math.IsInf(after, 0) {
-				return prods, 0, numerical("the Chebyshev series produced a non-finite value")
+				return prods, numerical("the Chebyshev series produced a non-finite value")
 			}
 			Kq := len(p.coefs[q]) - 1
-			slack := 10*bounds[q] + 1e-13*float64(Kq+10)*norm
+			slack := 10*p.bounds[q] + 1e-13*float64(Kq+10)*norm
 			if math.Abs(after-norm) > slack {
 				bad = true
 			}
 		}
 		if !bad {
-			return prods, bound, nil
+			return prods, nil
 		}
 		if try == 8 {
-			return prods, bound, numerical("the Chebyshev series does not conserve the norm even with a widened spectral interval")
+			return prods, numerical("the Chebyshev series does not conserve the norm even with a widened spectral interval")
 		}
 		c.a *= 1.25
 	}
 }
 
-// series sets accs[q] = Σ_{k<len(coef[q])} coef[q][k] T_k(H̃) psi in one
-// recurrence running to the longest series, each accumulator updated while
-// k < len(coef[q]), with the context checked every cancelEvery terms. It
-// returns the products.
-func (p *chebPlan) series(ctx context.Context, psi []complex128, accs, coef [][]complex128) (int, error) {
+// series sets p.accs[q] = Σ_{k<len(p.coefs[q])} p.coefs[q][k]·S_k for
+// q < m, S_k = (−i)^k T_k(H̃)psi from the rotated recurrence run to the
+// longest series in the ring of planRing slots (term k in slot k mod
+// planRing), the terms accumulated every planRing terms and at the end. The
+// context is checked every cancelEvery terms. It returns the products.
+// clearRing zeroes the ring first (after a failed try, whose terms need not
+// be finite).
+func (p *chebPlan) series(ctx context.Context, psi []complex128, m int, clearRing bool) (int, error) {
 	c := p.c
-	for q, a := range accs {
-		c0 := coef[q][0]
-		for i, v := range psi {
-			a[i] = c0 * v
-		}
+	n := len(psi)
+	if clearRing {
+		clear(p.ring)
 	}
+	clear(p.accBuf[:m*n])
 	K := 0
-	for _, co := range coef {
+	for _, co := range p.coefs[:m] {
 		K = max(K, len(co)-1)
 	}
-	if K == 0 {
-		return 0, nil
+	slot := func(k int) []complex128 {
+		j := k % planRing
+		return p.ring[j*n : (j+1)*n]
 	}
-	active := func(k int) ([][]complex128, []complex128) {
-		p.actA, p.actC = p.actA[:0], p.actC[:0]
-		for q, co := range coef {
-			if k < len(co) {
-				p.actA = append(p.actA, accs[q])
-				p.actC = append(p.actC, co[k])
-			}
-		}
-		return p.actA, p.actC
-	}
+	copy(slot(0), psi)
 	s := 1 / c.a
-	a, cs := active(1)
-	if len(a) == 1 {
-		c.csr.ChebFirst(c.t1, psi, a[0], s, c.b, cs[0])
-	} else {
-		c.csr.ChebFirstMulti(c.t1, psi, a, s, c.b, cs)
-	}
-	if K == 1 {
-		return 1, nil
-	}
-	prev, cur := psi, c.t1
-	dst := c.t2
-	for k := 2; k <= K; k++ {
-		if k%cancelEvery == 0 {
-			if err := ctx.Err(); err != nil {
-				return k - 1, cancelled(err)
+	kf := 0 // the first term not yet accumulated
+	for k := 0; k <= K; k++ {
+		switch {
+		case k == 1:
+			c.csr.ChebFirstRot(slot(1), slot(0), s, c.b)
+		case k >= 2:
+			if k%cancelEvery == 0 {
+				if err := ctx.Err(); err != nil {
+					return k - 1, cancelled(err)
+				}
 			}
+			c.csr.ChebNextRot(slot(k), slot(k-1), slot(k-2), s, c.b)
 		}
-		a, cs = active(k)
-		// One active series (the longest, once the shorter have ended)
-		// takes the single-accumulator kernel, which is faster than the
-		// multi kernel with one accumulator (BenchmarkChebMultiAccumulators).
-		if len(a) == 1 {
-			c.csr.ChebNext(dst, cur, prev, a[0], s, c.b, cs[0])
-		} else {
-			c.csr.ChebNextMulti(dst, cur, prev, a, s, c.b, cs)
+		if k-kf+1 == planRing || k == K {
+			p.accumulate(kf, k, m, n)
+			kf = k + 1
 		}
-		// The next term overwrites the older vector (psi is prev only at
-		// k = 2 and is never overwritten).
-		prev, cur = cur, dst
-		dst = prev
 	}
 	return K, nil
+}
+
+// accumulate adds terms kf…kl (at most planRing, held in the ring) to
+// every accumulator whose series reaches kf: with the ring read as a
+// planRing×2n real matrix R and the accumulators as a planMaxAcc×2n one A,
+// A += C·R for the planMaxAcc×planRing block C of real coefficients (zero
+// for terms outside kf…kl, beyond a series' end, or rows ≥ m). All
+// planMaxAcc rows take part (one tile of dense's 6-row micro-kernel, which
+// then reads the ring in place). Slots not holding one of those terms are
+// cleared first, so stale values never meet a zero coefficient.
+func (p *chebPlan) accumulate(kf, kl, m, n int) {
+	if kl-kf+1 < planRing {
+		for j := range planRing {
+			// slot j holds term kf + ((j − kf) mod planRing) when that is ≤ kl
+			if kf+((j-kf%planRing)+planRing)%planRing > kl {
+				clear(p.ring[j*n : (j+1)*n])
+			}
+		}
+	}
+	mat := p.mat
+	clear(mat)
+	for q, co := range p.coefs[:m] {
+		for k := kf; k <= kl && k < len(co); k++ {
+			mat[q*planRing+k%planRing] = co[k]
+		}
+	}
+	dk.AddProd(planMaxAcc, 2*n, planRing, mat, realParts(p.ring), 2*n, realParts(p.accBuf), 2*n, p.workers)
+}
+
+// realParts views x as its 2·len(x) real and imaginary parts (a complex128 is
+// stored as its real part followed by its imaginary part).
+func realParts(x []complex128) []float64 {
+	if len(x) == 0 {
+		return nil
+	}
+	return unsafe.Slice((*float64)(unsafe.Pointer(&x[0])), 2*len(x))
 }

@@ -54,8 +54,7 @@ const (
 func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
 	n := op.Len()
 	c := &chebyshev{op: op, classical: classical,
-		b: (iv.hi + iv.lo) / 2, a: (iv.hi - iv.lo) / 2,
-		t1: make([]complex128, n), t2: make([]complex128, n), acc: make([]complex128, n)}
+		b: (iv.hi + iv.lo) / 2, a: (iv.hi - iv.lo) / 2}
 	if c.a <= 0 {
 		// A multiple of the identity: any positive half-width works.
 		c.a = math.Max(1e-3*math.Abs(c.b), 1e-3)
@@ -71,6 +70,15 @@ func newChebyshev(op Operator, classical bool, iv interval) *chebyshev {
 }
 
 func (c *chebyshev) name() string { return "chebyshev" }
+
+// work allocates the work vectors on first use (a plan with groups
+// provides its own; see newChebPlan).
+func (c *chebyshev) work() {
+	if c.acc == nil {
+		n := c.op.Len()
+		c.t1, c.t2, c.acc = make([]complex128, n), make([]complex128, n), make([]complex128, n)
+	}
+}
 
 // step advances psi by dt with a 2-norm error at most tol.
 func (c *chebyshev) step(ctx context.Context, psi []complex128, dt, tol float64) (int, float64, error) {
@@ -111,6 +119,7 @@ func (c *chebyshev) segment(ctx context.Context, psi []complex128, h, tol float6
 	if norm == 0 {
 		return 0, 0, nil
 	}
+	c.work()
 	var prods int
 	for try := 0; ; try++ {
 		K, bound := c.coefficients(h, tol/norm)

@@ -16,9 +16,9 @@
 //	MulVecReal                dst = m·x (real vectors, real m)
 //	ChebFirst, ChebNext       one Chebyshev step fused with acc += c·T_k
 //	ChebFirstNorm, ChebNextNorm   the same, returning ‖T_k‖² (block-ordered sum)
-//	ChebFirstMulti, ChebNextMulti one step feeding several accumulators
+//	ChebFirstRot, ChebNextRot     one step of the rotated recurrence S_k = (−i)^k T_k,
+//	                          whose series coefficients are real (no accumulator)
 //	ChebFirstReal, ChebNextReal   Chebyshev steps on real vectors (classical walk)
-//	ChebSeriesMulti           several whole series of one start vector at once
 //	SumSq                     Σ|x_i|² (block-ordered sum)
 //	DetectGrid                switch an open square lattice or chain to
 //	                          matrix-free rows (same bits, ≈1.5× faster)

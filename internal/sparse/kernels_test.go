@@ -248,44 +248,6 @@ func refSumSq(x []complex128) float64 {
 	return s
 }
 
-func TestChebMultiMatchesSingle(t *testing.T) {
-	withSmallBlocks(t)
-	rng := rand.New(rand.NewPCG(3, 1))
-	n := 900
-	for _, kd := range kinds {
-		m := randomCSR(rng, n, kd.val, kd.imag, kd.diag)
-		cur, prev := randVec(rng, n), randVec(rng, n)
-		coefs := []complex128{complex(0.3, -0.2), complex(-1.1, 0.05), 0.7}
-		for _, w := range workerCounts {
-			m.Workers = w
-			accs := make([][]complex128, len(coefs))
-			wantAcc := make([][]complex128, len(coefs))
-			var wantDst []complex128
-			for q := range coefs {
-				accs[q] = randVec(rng, n)
-				wantAcc[q] = append([]complex128(nil), accs[q]...)
-				wantDst = make([]complex128, n)
-				refChebNext(m, wantDst, cur, prev, wantAcc[q], 0.4, 0.1, coefs[q])
-			}
-			p := append([]complex128(nil), prev...)
-			m.ChebNextMulti(p, cur, p, accs, 0.4, 0.1, coefs)
-			require.Equal(t, wantDst, p, "%s workers=%d", kd.name, w)
-			require.Equal(t, wantAcc, accs, "%s workers=%d", kd.name, w)
-
-			for q := range coefs {
-				accs[q] = randVec(rng, n)
-				wantAcc[q] = append([]complex128(nil), accs[q]...)
-				wantDst = make([]complex128, n)
-				refChebFirst(m, wantDst, cur, wantAcc[q], 0.4, 0.1, coefs[q])
-			}
-			dst := make([]complex128, n)
-			m.ChebFirstMulti(dst, cur, accs, 0.4, 0.1, coefs)
-			require.Equal(t, wantDst, dst, "%s workers=%d", kd.name, w)
-			require.Equal(t, wantAcc, accs, "%s workers=%d", kd.name, w)
-		}
-	}
-}
-
 func TestRealKernelsMatchReference(t *testing.T) {
 	withSmallBlocks(t)
 	rng := rand.New(rand.NewPCG(4, 1))

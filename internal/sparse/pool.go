@@ -84,12 +84,12 @@ const (
 	opMul op = iota
 	opFirst
 	opNext
-	opFirstMulti
-	opNextMulti
 	opMulReal
 	opFirstReal
 	opNextReal
 	opSumSq
+	opFirstRot
+	opNextRot
 )
 
 // job holds the arguments of one parallel kernel call. Jobs are recycled
@@ -98,8 +98,6 @@ type job struct {
 	op                  op
 	m                   *CSR
 	dst, cur, prev, acc []complex128
-	accs                [][]complex128
-	coefs               []complex128
 	rdst, rcur, rprev   []float64
 	racc                []float64
 	scale, shift        float64
@@ -158,7 +156,6 @@ func (j *job) run() float64 {
 func (j *job) release() {
 	j.m = nil
 	j.dst, j.cur, j.prev, j.acc = nil, nil, nil, nil
-	j.accs, j.coefs = nil, nil
 	j.rdst, j.rcur, j.rprev, j.racc = nil, nil, nil, nil
 	j.norm = false
 	jobPool.Put(j)
@@ -187,16 +184,16 @@ func (j *job) block(k int) {
 		j.partial[k] = m.chebRows(j.dst, j.cur, nil, j.acc, j.scale, j.shift, j.coef, j.norm, lo, hi)
 	case opNext:
 		j.partial[k] = m.chebRows(j.dst, j.cur, j.prev, j.acc, j.scale, j.shift, j.coef, j.norm, lo, hi)
-	case opFirstMulti:
-		m.chebMultiRows(j.dst, j.cur, nil, j.accs, j.coefs, j.scale, j.shift, lo, hi)
-	case opNextMulti:
-		m.chebMultiRows(j.dst, j.cur, j.prev, j.accs, j.coefs, j.scale, j.shift, lo, hi)
 	case opMulReal:
 		m.mulRowsReal(j.rdst[lo:hi], j.rcur, lo, hi)
 	case opFirstReal:
 		m.chebRealRows(j.rdst, j.rcur, nil, j.racc, j.scale, j.shift, j.rcoef, lo, hi)
 	case opNextReal:
 		m.chebRealRows(j.rdst, j.rcur, j.rprev, j.racc, j.scale, j.shift, j.rcoef, lo, hi)
+	case opFirstRot:
+		m.rotRows(j.dst, j.cur, nil, j.scale, j.shift, lo, hi)
+	case opNextRot:
+		m.rotRows(j.dst, j.cur, j.prev, j.scale, j.shift, lo, hi)
 	case opSumSq:
 		j.partial[k] = sumSq(j.cur[lo:hi])
 	}
