@@ -9,11 +9,12 @@ with sum_{k>K} 2|J_k(a dt)| <= budget (Tal-Ezer & Kosloff, J. Chem. Phys. 81,
 3967 (1984); J_k from scipy.special.jv). Summed over the intervals this is the
 fewest products any restart-per-interval Chebyshev propagator can use.
 
-It also evaluates grouping: one expansion from the state at t_s serving the
-reported times t_{s+1..e} with one accumulator each (sparse.CSR.ChebNextMulti),
-costing K(a(t_e - t_s)) products plus omega*K_q per extra accumulator, omega =
-32/116 ~ 0.28 (bytes of an accumulator update over bytes of a fused step on the
-gasket), with at most 8 accumulators; the best grouping by dynamic programming.
+It also evaluates grouping as walk/chebplan.go does it: one expansion from the
+state at t_s serving the reported times t_{s+1..e} with one accumulator each,
+costing K(a(t_e - t_s)) products plus omega*K_q per extra accumulator term,
+omega = 0.02 (the accumulators take a ring of stored terms at once as one real
+matrix product; BenchmarkChebGroupTerm), with at most 6 accumulators; the best
+grouping by dynamic programming.
 
     /usr/bin/python3 benchdata/chebyshev_terms.py
 """
@@ -40,7 +41,7 @@ def restart(times, a, tol):
     return total
 
 
-def grouped(times, a, tol, omega=0.28, maxacc=8):
+def grouped(times, a, tol, omega=0.02, maxacc=6):
     ts, n = [0.0] + list(times), len(times)
     tmax = times[-1]
     best, prods = [0.0] + [np.inf] * n, [0] * (n + 1)

@@ -49,19 +49,23 @@
 // Restarting the quantum series at every reported time pays its
 // O(log(1/ε)) tail once per interval, which dominates for many short,
 // log-spaced early intervals. For a quantum walk on a CSR operator the
-// driver therefore plans expansion groups: up to three consecutive reported
-// times (a·span ≤ 500) share one recurrence from the state at the group's
-// start, each with its own accumulator and coefficients J_k(aΔ_j)·e^{−ibΔ_j}
-// for its own span Δ_j, updated only up to its own truncation index. The
-// groups are chosen by dynamic programming over the times, minimising
-// products plus 0.25 × accumulator updates (the measured cost of an update
-// relative to a product). Each time keeps the error budget of the
-// restarting driver and its truncation tail is added to the error bound;
-// the norm check and widening apply to every accumulator. On the gasket
-// g = 10 benchmark (60 times to t = 500) this cuts the products from 1.77 to
-// 1.50·a·t_max (benchdata/RESULTS.md). EstimateBytes counts the two extra
-// accumulators; a memory limit below ten times their size allows fewer or
-// none.
+// driver therefore plans expansion groups: up to six consecutive reported
+// times (a·span ≤ 20000) share one recurrence from the state at the group's
+// start, each with its own accumulator and coefficients for its own span
+// Δ_j, updated only up to its own truncation index. A group runs the rotated
+// recurrence S_k = (−i)^k T_k(H̃)ψ, whose coefficients J_0, 2J_1, … are real
+// (the phase e^{−ibΔ_j} is applied at the end), keeps the last eight terms
+// and adds them to all accumulators at once as one real matrix product, so
+// an accumulator costs about 1/50 of a product per term. The groups are
+// chosen by dynamic programming over the times, minimising products plus
+// 0.02 × accumulator updates. Each time keeps the error budget of the
+// restarting driver; the reported error bound is that of the worst reported
+// state (its group start's bound plus its own tail). The norm check and
+// widening apply to every accumulator. On the gasket g = 10 benchmark
+// (60 times to t = 500) this cuts the products from 1.77 (restart per
+// interval) to 1.24·a·t_max (benchdata/RESULTS.md). EstimateBytes counts the
+// eight stored terms and six accumulators; when they would take more than a
+// tenth of the memory limit, every time restarts.
 // Classical walks and operators given only as an Operator restart per
 // interval as before.
 //
