@@ -9,8 +9,8 @@ import (
 	dk "github.com/ampwalk/ampwalk/internal/dense"
 )
 
-// Planning Chebyshev expansions over the reported times (quantum walk on a
-// CSR operator only).
+// Planning Chebyshev expansions over the reported times (walks on a CSR
+// operator: quantum, and classical on a real matrix from a real state).
 //
 // Restarting the series at every reported time pays its O(log(1/ε)) tail
 // once per interval, which dominates when the early, log-spaced intervals
@@ -30,7 +30,9 @@ import (
 // accumulators take them at once: acc_j += Σ_k r_{jk} S_k is a real matrix
 // product (dense.AddProd, complex vectors read as pairs of reals) that
 // streams each accumulator through memory once per planRing terms instead
-// of once per term.
+// of once per term. The classical series exp(−Ht) = e^{−bt}[I_0(at) +
+// 2Σ_{k≥1}(−1)^k I_k(at)T_k(H̃)] has real coefficients on the plain
+// recurrence, which then runs on real vectors (sparse.CSR.ChebNextReal).
 //
 // Each time keeps the error budget tol·(0.5·Δ_j/t_max + 0.5/steps) of the
 // restarting driver. The error of a reported state is that of its group's
@@ -71,10 +73,14 @@ type chebPlan struct {
 	errNow float64   // error bound of the last state delivered
 	errs   []float64 // error bounds of the held states
 
-	accs    [][]complex128 // views of accBuf
-	accBuf  []complex128   // maxAcc·n, one accumulator after another
-	ring    []complex128   // planRing·n, the stored terms S_k
-	workers int
+	// The workspace is real: a quantum state of n sites is 2n reals
+	// (complex128 is stored as its real part then its imaginary part), a
+	// classical one n. width is that length.
+	classical bool
+	width     int
+	ring      []float64 // planRing·width, the stored terms (term k in slot k mod planRing)
+	acc       []float64 // planMaxAcc·width, one accumulator after another
+	workers   int
 
 	coefs  [][]float64 // real series coefficients per time
 	phases []complex128
@@ -83,12 +89,14 @@ type chebPlan struct {
 }
 
 // newChebPlan plans the groups for the times of a propagation from a state
-// of norm norm0 > 0. The group workspace (planExtraVectors vectors) may take
-// at most 10% of memLimit; when it does not fit, every time gets its own
-// restarting step. A plan with groups takes over the driver's work vectors
-// (c.t1, c.t2 become ring slots, c.acc the first accumulator).
+// of norm norm0 > 0 (for a classical walk, a real state and c.realOK). The
+// group workspace (planExtraVectors vectors) may take at most 10% of
+// memLimit; when it does not fit, or when a classical interval reaches
+// below 0 (its coefficients would grow with the span), every time gets its
+// own restarting step. A quantum plan with groups takes over the driver's
+// work vectors (c.t1, c.t2 become ring slots, c.acc the first accumulator).
 func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nsteps int, memLimit int64) *chebPlan {
-	p := &chebPlan{c: c, tolAbs: tolAbs, tmax: tmax, nsteps: nsteps, ready: -1, workers: c.csr.Workers}
+	p := &chebPlan{c: c, tolAbs: tolAbs, tmax: tmax, nsteps: nsteps, ready: -1, workers: c.csr.Workers, classical: c.classical}
 	prev := 0.0
 	for _, t := range times {
 		if t > prev {
@@ -98,7 +106,7 @@ func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nst
 	}
 	n := c.op.Len()
 	maxAcc := planMaxAcc
-	if memLimit/10 < int64(planExtraVectors)*16*int64(max(n, 1)) {
+	if memLimit/10 < int64(planExtraVectors)*16*int64(max(n, 1)) || c.classical && c.b-c.a < -1e-12*c.a {
 		maxAcc = 1
 	}
 	p.groupE = planGroups(c, p.u, maxAcc, func(span float64) float64 { return p.tol(span) / norm0 })
@@ -109,20 +117,39 @@ func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nst
 	if used == 1 {
 		return p
 	}
-	used = planMaxAcc // accumulate runs on whole 6-row tiles
-	p.accBuf = make([]complex128, used*n)
-	p.ring = make([]complex128, planRing*n)
-	p.accs = make([][]complex128, used)
-	for q := range p.accs {
-		p.accs[q] = p.accBuf[q*n : (q+1)*n]
+	p.width = 2 * n
+	if p.classical {
+		p.width = n
 	}
-	c.t1, c.t2, c.acc = p.ring[:n], p.ring[n:2*n], p.accs[0]
-	p.errs = make([]float64, used)
-	p.coefs = make([][]float64, used)
-	p.phases = make([]complex128, used)
-	p.bounds = make([]float64, used)
+	p.acc = make([]float64, planMaxAcc*p.width) // accumulate runs on whole 6-row tiles
+	p.ring = make([]float64, planRing*p.width)
+	if !p.classical {
+		c.t1, c.t2, c.acc = p.slotC(0), p.slotC(1), p.accC(0)
+	}
+	p.errs = make([]float64, planMaxAcc)
+	p.coefs = make([][]float64, planMaxAcc)
+	p.phases = make([]complex128, planMaxAcc)
+	p.bounds = make([]float64, planMaxAcc)
 	p.mat = make([]float64, planMaxAcc*planRing)
 	return p
+}
+
+// slotR and accR are ring slot j and accumulator q as reals; slotC and accC
+// view them as complex vectors (quantum plans).
+func (p *chebPlan) slotR(j int) []float64    { return p.ring[j*p.width : (j+1)*p.width] }
+func (p *chebPlan) accR(q int) []float64     { return p.acc[q*p.width : (q+1)*p.width] }
+func (p *chebPlan) slotC(j int) []complex128 { return complexes(p.slotR(j)) }
+func (p *chebPlan) accC(q int) []complex128  { return complexes(p.accR(q)) }
+
+// deliver copies the state held in accumulator q to psi.
+func (p *chebPlan) deliver(psi []complex128, q int) {
+	if !p.classical {
+		copy(psi, p.accC(q))
+		return
+	}
+	for i, v := range p.accR(q) {
+		psi[i] = complex(v, 0)
+	}
 }
 
 // tol is the error budget of a time reached over span from its group's start.
@@ -178,7 +205,7 @@ func (p *chebPlan) advance(ctx context.Context, psi []complex128, dt float64) (i
 	i := p.next
 	p.next++
 	if i <= p.ready {
-		copy(psi, p.accs[i-p.gs])
+		p.deliver(psi, i-p.gs)
 		p.errNow = p.errs[i-p.gs]
 		return 0, p.errNow, nil
 	}
@@ -201,39 +228,50 @@ func (p *chebPlan) advance(ctx context.Context, psi []complex128, dt float64) (i
 		p.errs[q] = p.errNow + p.bounds[q]
 	}
 	p.gs, p.ready = i, e
-	copy(psi, p.accs[0])
+	p.deliver(psi, 0)
 	p.errNow = p.errs[0]
 	return prods, p.errNow, nil
 }
 
-// group fills p.accs[q] with the state at us[q] from psi at start (psi is
-// left unchanged) and p.bounds[q] with its truncation bound, widening the
-// spectral interval when a result fails the norm check as segment does.
+// group fills accumulator q with the state at us[q] from psi at start
+// (psi is left unchanged) and p.bounds[q] with its truncation bound,
+// widening the spectral interval when a result fails the checks of segment
+// (norm conservation; for the classical walk contraction and positivity).
 func (p *chebPlan) group(ctx context.Context, psi []complex128, start float64, us []float64) (int, error) {
 	c := p.c
 	m := len(us)
 	norm := nrm2(psi)
 	if norm == 0 {
 		for q := range m {
-			clear(p.accs[q])
+			clear(p.accR(q))
 			p.bounds[q] = 0
 		}
 		return 0, nil
 	}
+	nonneg := p.classical && c.metzler && minReal(psi) >= -1e-14*norm
 	var prods int
 	for try := 0; ; try++ {
 		for q, t := range us {
 			h := t - start
 			K, b := c.coefficients(h, p.tol(h)/norm)
 			co := p.coefs[q][:0]
-			for k, v := range c.bes[:K+1] {
-				if k > 0 {
-					v *= 2
+			if p.classical {
+				// e^{−bh}(−1)^k I_k(ah)·(1 or 2), real.
+				for _, v := range c.coef[:K+1] {
+					co = append(co, real(v))
 				}
-				co = append(co, v)
+				p.phases[q] = 1
+			} else {
+				// J_0, 2J_1, 2J_2, … on the rotated terms.
+				for k, v := range c.bes[:K+1] {
+					if k > 0 {
+						v *= 2
+					}
+					co = append(co, v)
+				}
+				p.phases[q] = cmplx.Exp(complex(0, -c.b*h))
 			}
 			p.coefs[q] = co
-			p.phases[q] = cmplx.Exp(complex(0, -c.b*h))
 			p.bounds[q] = b * norm
 		}
 		K, err := p.series(ctx, psi, m, try > 0)
@@ -242,19 +280,26 @@ func (p *chebPlan) group(ctx context.Context, psi []complex128, start float64, u
 			return prods, err
 		}
 		bad := false
-		for q, a := range p.accs[:m] {
-			ph := p.phases[q]
-			for i, v := range a {
-				a[i] = v * ph
-			}
-			after := nrm2(a)
-			if math.IsNaN(after) || math.IsInf(after, 0) {
-				return prods, numerical("the Chebyshev series produced a non-finite value")
-			}
+		for q := range m {
 			Kq := len(p.coefs[q]) - 1
 			slack := 10*p.bounds[q] + 1e-13*float64(Kq+10)*norm
-			if math.Abs(after-norm) > slack {
-				bad = true
+			var after float64
+			if p.classical {
+				a := p.accR(q)
+				after = nrm2Real(a)
+				bad = bad || c.b-c.a >= -1e-12*c.a && after > norm+slack
+				bad = bad || nonneg && minFloat(a) < -slack
+			} else {
+				a := p.accC(q)
+				ph := p.phases[q]
+				for i, v := range a {
+					a[i] = v * ph
+				}
+				after = nrm2(a)
+				bad = bad || math.Abs(after-norm) > slack
+			}
+			if math.IsNaN(after) || math.IsInf(after, 0) {
+				return prods, numerical("the Chebyshev series produced a non-finite value")
 			}
 		}
 		if !bad {
@@ -267,45 +312,52 @@ func (p *chebPlan) group(ctx context.Context, psi []complex128, start float64, u
 	}
 }
 
-// series sets p.accs[q] = Σ_{k<len(p.coefs[q])} p.coefs[q][k]·S_k for
-// q < m, S_k = (−i)^k T_k(H̃)psi from the rotated recurrence run to the
-// longest series in the ring of planRing slots (term k in slot k mod
-// planRing), the terms accumulated every planRing terms and at the end. The
+// series sets accumulator q (q < m) to Σ_{k<len(p.coefs[q])} p.coefs[q][k]·X_k,
+// with X_k = S_k = (−i)^k T_k(H̃)psi from the rotated recurrence (quantum) or
+// X_k = T_k(H̃)psi on real vectors (classical), run to the longest series in
+// the ring, the terms accumulated every planRing terms and at the end. The
 // context is checked every cancelEvery terms. It returns the products.
 // clearRing zeroes the ring first (after a failed try, whose terms need not
 // be finite).
 func (p *chebPlan) series(ctx context.Context, psi []complex128, m int, clearRing bool) (int, error) {
 	c := p.c
-	n := len(psi)
 	if clearRing {
 		clear(p.ring)
 	}
-	clear(p.accBuf[:m*n])
+	clear(p.acc)
 	K := 0
 	for _, co := range p.coefs[:m] {
 		K = max(K, len(co)-1)
 	}
-	slot := func(k int) []complex128 {
-		j := k % planRing
-		return p.ring[j*n : (j+1)*n]
+	if p.classical {
+		s0 := p.slotR(0)
+		for i, v := range psi {
+			s0[i] = real(v)
+		}
+	} else {
+		copy(p.slotC(0), psi)
 	}
-	copy(slot(0), psi)
 	s := 1 / c.a
 	kf := 0 // the first term not yet accumulated
 	for k := 0; k <= K; k++ {
-		switch {
-		case k == 1:
-			c.csr.ChebFirstRot(slot(1), slot(0), s, c.b)
-		case k >= 2:
-			if k%cancelEvery == 0 {
-				if err := ctx.Err(); err != nil {
-					return k - 1, cancelled(err)
-				}
+		if k >= 2 && k%cancelEvery == 0 {
+			if err := ctx.Err(); err != nil {
+				return k - 1, cancelled(err)
 			}
-			c.csr.ChebNextRot(slot(k), slot(k-1), slot(k-2), s, c.b)
+		}
+		j, j1, j2 := k%planRing, (k+planRing-1)%planRing, (k+planRing-2)%planRing
+		switch {
+		case k == 1 && p.classical:
+			c.csr.ChebFirstReal(p.slotR(1), p.slotR(0), nil, s, c.b, 0)
+		case k == 1:
+			c.csr.ChebFirstRot(p.slotC(1), p.slotC(0), s, c.b)
+		case k >= 2 && p.classical:
+			c.csr.ChebNextReal(p.slotR(j), p.slotR(j1), p.slotR(j2), nil, s, c.b, 0)
+		case k >= 2:
+			c.csr.ChebNextRot(p.slotC(j), p.slotC(j1), p.slotC(j2), s, c.b)
 		}
 		if k-kf+1 == planRing || k == K {
-			p.accumulate(kf, k, m, n)
+			p.accumulate(kf, k, m)
 			kf = k + 1
 		}
 	}
@@ -314,18 +366,18 @@ func (p *chebPlan) series(ctx context.Context, psi []complex128, m int, clearRin
 
 // accumulate adds terms kf…kl (at most planRing, held in the ring) to
 // every accumulator whose series reaches kf: with the ring read as a
-// planRing×2n real matrix R and the accumulators as a planMaxAcc×2n one A,
-// A += C·R for the planMaxAcc×planRing block C of real coefficients (zero
-// for terms outside kf…kl, beyond a series' end, or rows ≥ m). All
+// planRing×width real matrix R and the accumulators as a planMaxAcc×width
+// one A, A += C·R for the planMaxAcc×planRing block C of real coefficients
+// (zero for terms outside kf…kl, beyond a series' end, or rows ≥ m). All
 // planMaxAcc rows take part (one tile of dense's 6-row micro-kernel, which
 // then reads the ring in place). Slots not holding one of those terms are
 // cleared first, so stale values never meet a zero coefficient.
-func (p *chebPlan) accumulate(kf, kl, m, n int) {
+func (p *chebPlan) accumulate(kf, kl, m int) {
 	if kl-kf+1 < planRing {
 		for j := range planRing {
 			// slot j holds term kf + ((j − kf) mod planRing) when that is ≤ kl
 			if kf+((j-kf%planRing)+planRing)%planRing > kl {
-				clear(p.ring[j*n : (j+1)*n])
+				clear(p.slotR(j))
 			}
 		}
 	}
@@ -336,14 +388,33 @@ func (p *chebPlan) accumulate(kf, kl, m, n int) {
 			mat[q*planRing+k%planRing] = co[k]
 		}
 	}
-	dk.AddProd(planMaxAcc, 2*n, planRing, mat, realParts(p.ring), 2*n, realParts(p.accBuf), 2*n, p.workers)
+	w := p.width
+	dk.AddProd(planMaxAcc, w, planRing, mat, p.ring, w, p.acc, w, p.workers)
 }
 
-// realParts views x as its 2·len(x) real and imaginary parts (a complex128 is
-// stored as its real part followed by its imaginary part).
-func realParts(x []complex128) []float64 {
+// complexes views x (even length) as complex values, each a real part
+// followed by an imaginary part, the layout of complex128.
+func complexes(x []float64) []complex128 {
 	if len(x) == 0 {
 		return nil
 	}
-	return unsafe.Slice((*float64)(unsafe.Pointer(&x[0])), 2*len(x))
+	return unsafe.Slice((*complex128)(unsafe.Pointer(&x[0])), len(x)/2)
+}
+
+// nrm2Real returns the 2-norm of x.
+func nrm2Real(x []float64) float64 {
+	var s float64
+	for _, v := range x {
+		s += v * v
+	}
+	return math.Sqrt(s)
+}
+
+// minFloat returns the smallest value in x (+Inf when empty).
+func minFloat(x []float64) float64 {
+	m := math.Inf(1)
+	for _, v := range x {
+		m = math.Min(m, v)
+	}
+	return m
 }

@@ -66,8 +66,11 @@
 // interval) to 1.24·a·t_max (benchdata/RESULTS.md). EstimateBytes counts the
 // eight stored terms and six accumulators; when they would take more than a
 // tenth of the memory limit, every time restarts.
-// Classical walks and operators given only as an Operator restart per
-// interval as before.
+// Classical walks on a real CSR matrix from a real distribution are planned
+// the same way on real vectors (plain recurrence, real coefficients
+// e^{−bΔ}(−1)^k I_k(aΔ)): on the gasket g = 10 with 60 times to t = 500
+// the products fall from 1722 to 645. Operators given only as an Operator
+// restart per interval.
 //
 // Krylov (Saad, SIAM J. Numer. Anal. 29, 209 (1992); step control after
 // Sidje, ACM TOMS 24, 130 (1998)) projects onto a Lanczos space of up to 30

@@ -99,10 +99,11 @@ func propagate(ctx context.Context, op Operator, dyn Dynamics, psi0 []complex128
 			nsteps++
 		}
 	}
-	// Quantum walks on a CSR operator group reported times into shared
-	// Chebyshev expansions (chebplan.go).
+	// Walks on a CSR operator group reported times into shared Chebyshev
+	// expansions (chebplan.go): quantum walks always, classical walks on a
+	// real matrix from a real state (the series then runs on real vectors).
 	var plan *chebPlan
-	if c, ok := p.(*chebyshev); ok && !classical && c.csr != nil && norm0 > 0 {
+	if c, ok := p.(*chebyshev); ok && c.csr != nil && norm0 > 0 && (!classical || c.realOK && isRealVec(psi)) {
 		plan = newChebPlan(c, times, tolAbs, norm0, tmax, nsteps, s.MemoryLimit)
 	}
 	prev := 0.0

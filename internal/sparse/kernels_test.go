@@ -286,6 +286,14 @@ func TestRealKernelsMatchReference(t *testing.T) {
 				m.ChebNextReal(p, x, p, a, 0.7, 0.2, 0.3)
 				require.Equal(t, wantNext, p, name)
 				require.Equal(t, wantNextAcc, a, name)
+
+				// Without an accumulator: the recurrence alone.
+				dst = make([]float64, n)
+				m.ChebFirstReal(dst, x, nil, 0.7, 0.2, 0.3)
+				require.Equal(t, wantFirst, dst, name)
+				p = append([]float64(nil), prev...)
+				m.ChebNextReal(p, x, p, nil, 0.7, 0.2, 0.3)
+				require.Equal(t, wantNext, p, name)
 			}
 		}
 	}

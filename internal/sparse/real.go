@@ -24,8 +24,11 @@ func (m *CSR) MulVecReal(dst, x []float64) {
 //		dst[i] = scale·((m·cur)[i] − shift·cur[i])
 //		acc[i] += coef·dst[i]
 //	}
+//
+// With acc == nil only the recurrence runs (coef is ignored).
 func (m *CSR) ChebFirstReal(dst, cur, acc []float64, scale, shift, coef float64) {
-	m.checkReal(len(dst), len(cur), len(acc))
+	m.checkReal(len(dst), len(cur))
+	m.checkAcc(acc)
 	m.chebReal(opFirstReal, dst, cur, nil, acc, scale, shift, coef)
 }
 
@@ -36,9 +39,11 @@ func (m *CSR) ChebFirstReal(dst, cur, acc []float64, scale, shift, coef float64)
 //		acc[i] += coef·dst[i]
 //	}
 //
-// dst may alias prev but not cur or acc.
+// dst may alias prev but not cur or acc. With acc == nil only the
+// recurrence runs (coef is ignored).
 func (m *CSR) ChebNextReal(dst, cur, prev, acc []float64, scale, shift, coef float64) {
-	m.checkReal(len(dst), len(cur), len(prev), len(acc))
+	m.checkReal(len(dst), len(cur), len(prev))
+	m.checkAcc(acc)
 	m.chebReal(opNextReal, dst, cur, prev, acc, scale, shift, coef)
 }
 
@@ -50,6 +55,13 @@ func (m *CSR) checkReal(lens ...int) {
 		if l != m.N {
 			panic("sparse: dimension mismatch")
 		}
+	}
+}
+
+// checkAcc checks the length of an accumulator that may be nil.
+func (m *CSR) checkAcc(acc []float64) {
+	if acc != nil && len(acc) != m.N {
+		panic("sparse: dimension mismatch")
 	}
 }
 
@@ -77,17 +89,32 @@ func (m *CSR) chebRealRows(dst, cur, prev, acc []float64, scale, shift, coef flo
 		m.mulRowsReal(y, cur, c, e)
 		cs := cur[c:e]
 		ds := dst[c:e]
-		as := acc[c:e]
-		cs, ds, as = cs[:len(y)], ds[:len(y)], as[:len(y)]
-		if prev == nil {
+		cs, ds = cs[:len(y)], ds[:len(y)]
+		var ps []float64
+		if prev != nil {
+			ps = prev[c:e]
+			ps = ps[:len(y)]
+		}
+		switch {
+		case prev == nil && acc == nil:
+			for i, yi := range y {
+				ds[i] = s * (yi - shift*cs[i])
+			}
+		case prev == nil:
+			as := acc[c:e]
+			as = as[:len(y)]
 			for i, yi := range y {
 				v := s * (yi - shift*cs[i])
 				ds[i] = v
 				as[i] += coef * v
 			}
-		} else {
-			ps := prev[c:e]
-			ps = ps[:len(y)]
+		case acc == nil:
+			for i, yi := range y {
+				ds[i] = s*(yi-shift*cs[i]) - ps[i]
+			}
+		default:
+			as := acc[c:e]
+			as = as[:len(y)]
 			for i, yi := range y {
 				v := s*(yi-shift*cs[i]) - ps[i]
 				ds[i] = v
