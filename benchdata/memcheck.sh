@@ -28,3 +28,5 @@ run gasket11 -generation 11 -tmax 20 -count 5
 run gasket12 -generation 12 -tmax 20 -count 5
 run gasket13 -generation 13 -tmax 10 -count 5
 run square1000 -lattice square -width 1000 -tmin 1 -tmax 10 -count 5
+# One reported time: no expansion group, so no group workspace.
+run gasket12-one-time -generation 12 -tmin 20 -tmax 20 -count 1

@@ -9,7 +9,7 @@ import (
 
 // jobBytes estimates the memory of a walk job on g: the graph and its
 // Hamiltonian (lattice.EstimateBytes, plus stored values when the graph is
-// weighted or disordered), the propagator's vectors (EstimateBytes) for
+// weighted or disordered), the propagator's vectors (EstimateBytesFor) for
 // each realisation running at once, the dense eigensystem of an exact
 // average, and the stored outputs of every realisation.
 func (j *Job) jobBytes(g *lattice.Graph) int64 {
@@ -19,7 +19,7 @@ func (j *Job) jobBytes(g *lattice.Graph) int64 {
 	b += 8*m + 16*2*m // weights and stored CSR values (weighted or disordered copies)
 	_, nr := j.realisations()
 	conc := int64(min(nr, workersFor(0)))
-	vec := EstimateBytes(g.Len(), 2*g.NumBonds(), j.Method)
+	vec := EstimateBytesFor(g.Len(), 2*g.NumBonds(), j.Method, j.Times)
 	if j.reports("average") && j.Window == nil {
 		vec += 2 * 16 * n * n
 	}

@@ -259,6 +259,29 @@ func EstimateBytes(n, nnz int, m Method) int64 {
 	return EstimateBytes(n, nnz, Chebyshev)
 }
 
+// EstimateBytesFor is EstimateBytes for a propagation to the given
+// reported times. A Chebyshev propagation (or Auto's Chebyshev fallback)
+// whose times cannot share an expansion, fewer than two distinct positive
+// times, holds no group workspace (planExtraVectors state vectors fewer);
+// otherwise it is EstimateBytes.
+func EstimateBytesFor(n, nnz int, m Method, times []float64) int64 {
+	b := EstimateBytes(n, nnz, m)
+	if m != Chebyshev && m != Auto {
+		return b
+	}
+	distinct, prev := 0, 0.0
+	for _, t := range times {
+		if t > prev {
+			distinct++
+			prev = t
+		}
+	}
+	if distinct < 2 {
+		b -= int64(planExtraVectors) * 16 * int64(max(n, 0))
+	}
+	return b
+}
+
 // sumReal returns Σ Re ψ_i.
 func sumReal(psi []complex128) float64 {
 	var s float64

@@ -94,6 +94,11 @@ func TestEstimateBytes(t *testing.T) {
 	assert.LessOrEqual(t, EstimateBytes(1e6, 4e6, Chebyshev), int64(20*16*1e6))
 	assert.Equal(t, EstimateBytes(1e6, 4e6, Chebyshev), EstimateBytes(1e6, 4e6, Auto))
 	assert.Equal(t, int64(0), EstimateBytes(0, 0, Exact))
+	// Times that cannot share an expansion need no group workspace.
+	full := EstimateBytes(1e6, 4e6, Chebyshev)
+	assert.Equal(t, full, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 1, 2}))
+	assert.Equal(t, full-int64(planExtraVectors)*16e6, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 5, 5}))
+	assert.Equal(t, EstimateBytes(1e6, 4e6, Krylov), EstimateBytesFor(1e6, 4e6, Krylov, []float64{5}))
 }
 
 func TestPropagateTimeZeroAndRepeats(t *testing.T) {

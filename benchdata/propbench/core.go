@@ -135,7 +135,7 @@ func run(c config, log io.Writer) (*result, error) {
 		}
 	}
 	r.BuildSeconds = time.Since(t0).Seconds()
-	r.EstimateBytes = estimate(n, g.NumBonds(), dim, len(times))
+	r.EstimateBytes = estimate(n, g.NumBonds(), dim, times)
 	if c.GraphOnly {
 		return r, nil
 	}
@@ -191,15 +191,15 @@ func run(c config, log io.Writer) (*result, error) {
 
 // estimate is the memory the run should need: the graph and its CSR
 // (lattice.EstimateBytes), the propagation workspace
-// (walk.EstimateBytes, Chebyshev, which counts the caller's start vector),
+// (walk.EstimateBytesFor, Chebyshev, which counts the caller's start vector),
 // and this program's own arrays: the squared distances, plus the Go runtime's fixed part
 // (5 MiB: the peak RSS of a generation-4 run, measured with /usr/bin/time -v).
 // The half-width estimate's CSR copy and three real vectors are collected
 // before the propagation and are not counted.
-func estimate(n, bonds, dim, times int) int64 {
+func estimate(n, bonds, dim int, times []float64) int64 {
 	return lattice.EstimateBytes(n, bonds, dim) +
-		walk.EstimateBytes(n, 2*bonds, walk.Chebyshev) +
-		8*int64(n) + 16*int64(times) + 5<<20
+		walk.EstimateBytesFor(n, 2*bonds, walk.Chebyshev, times) +
+		8*int64(n) + 16*int64(len(times)) + 5<<20
 }
 
 // peakRSS returns VmHWM from /proc/self/status in bytes, 0 when unreadable.
