@@ -1,13 +1,16 @@
-// Package dense holds the dense real kernels behind ampwalk's eigensolver:
-// a cache-blocked, packed matrix product (Goto & van de Geijn, ACM Trans.
-// Math. Softw. 34, 12 (2008)) whose 6×16 (AVX-512) or 6×8 (AVX2/FMA)
-// micro-kernel on amd64 is chosen at run time from CPUID, with a portable Go
-// fallback elsewhere, and parallel symmetric and Hermitian matrix–vector
-// products that read each stored element once.
+// Package dense holds the dense real kernels behind ampwalk's eigensolver
+// and its Chebyshev planner: a cache-blocked, packed matrix product (Goto &
+// van de Geijn, ACM Trans. Math. Softw. 34, 12 (2008)) whose 6×16 (AVX-512)
+// or 6×8 (AVX2/FMA) micro-kernel on amd64 is chosen at run time from CPUID,
+// with a portable Go fallback elsewhere; AddProd, the same micro-kernel on
+// the shape of a few long vectors each taking a short combination of a few
+// others (reading those in place); and parallel symmetric and Hermitian
+// matrix–vector products that read each stored element once.
 //
-// Files: gemm.go (blocking, packing, worker split), kernel*.go and *.s (the
-// micro-kernels and CPU detection), symv.go and hemv.go (the matrix–vector
-// products used by the Householder tridiagonalisation in package spectra).
+// Files: gemm.go (blocking, packing, worker split), addprod.go (the
+// planner's accumulation), kernel*.go and *.s (the micro-kernels and CPU
+// detection), symv.go and hemv.go (the matrix–vector products used by the
+// Householder tridiagonalisation in package spectra).
 //
 // All matrices are row-major: element (i, j) of a matrix with leading
 // dimension ld is at index i·ld + j. Work is split into fixed column (or row)
