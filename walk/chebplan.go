@@ -68,7 +68,7 @@ type chebPlan struct {
 	nsteps int
 
 	next   int       // index in u of the next time to reach
-	gs     int       // u[gs..ready] are held in accs[0..ready−gs]
+	gs     int       // u[gs..ready] are held in accumulators 0…ready−gs
 	ready  int       // (ready < next: none held)
 	errNow float64   // error bound of the last state delivered
 	errs   []float64 // error bounds of the held states
