@@ -9,6 +9,8 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -345,4 +347,28 @@ func TestFixClassicalVeryLongTimeAuto(t *testing.T) {
 	for _, p := range r["populations"].([]any)[0].([]any) {
 		assert.InDelta(t, 0.125, p, 1e-12)
 	}
+}
+
+func TestFixClassicalRoundingFloor(t *testing.T) {
+	// A stiff classical chain (rates 10⁻³ and 10³ alternating, γ = 0.8) to
+	// t = 1000 at tolerance 1e-12: the series' rounding (≈2.5e-11) exceeds
+	// its truncation bound (≈1e-12), so error_bound must include the
+	// rounding floor. Reference populations at t = 1000 from a
+	// uniformisation series in numpy 1.24.2 long double (80-bit), whose sum
+	// is 1 within 2.3e-14: testdata/audit/stiff_classical_ref.py (job line
+	// in testdata/audit/stiff_classical.jsonl).
+	line, err := os.ReadFile("testdata/audit/stiff_classical.jsonl")
+	require.NoError(t, err)
+	r := fixServe(t, strings.TrimSpace(string(line)))[0]
+	require.Nil(t, r["error"], "%v", r)
+	pops := r["populations"].([]any)
+	last := pops[len(pops)-1].([]any)
+	bound := r["diagnostics"].(map[string]any)["error_bound"].(float64)
+	want := map[int]float64{12: 0.09724947771939019, 13: 0.2620745195848495}
+	var dev float64
+	for site, w := range want {
+		dev = math.Hypot(dev, last[site].(float64)-w)
+	}
+	assert.LessOrEqual(t, dev, bound, "the reported bound covers the deviation at two sites")
+	assert.Less(t, bound, 1e-9, "and stays a useful number")
 }

@@ -146,9 +146,9 @@ package walk
 // are summed, drift and bound are maxima, and method is "mixed" if they
 // differ. Probabilities are clamped to [0, 1] before the reductions (a
 // state within tolerance can give 1 + 10⁻⁹; norm_drift still reports the
-// deviation). For quantum walks error_bound is at least 2⁻⁵²·‖H‖·t_max (‖H‖
-// by Gershgorin's bound), the phase error double precision cannot avoid at
-// long times; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
+// deviation). error_bound is at least the rounding error double precision
+// cannot avoid at long times: 2⁻⁵²·‖H‖·t_max for quantum walks (‖H‖ by
+// Gershgorin's bound), 10·2⁻⁵² per product for classical ones; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
 // field "tolerance". "chebyshev" needing more than 10⁹ products (about
 // ‖H‖·t_max) is refused as "too-large", field "method". A reported time
 // with ‖H‖·t < 2⁻⁵³ is propagated as t = 0 (the propagator is the identity
