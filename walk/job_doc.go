@@ -148,7 +148,9 @@ package walk
 // state within tolerance can give 1 + 10⁻⁹; norm_drift still reports the
 // deviation). error_bound is at least the rounding error double precision
 // cannot avoid at long times: 2⁻⁵²·‖H‖·t_max for quantum walks (‖H‖ by
-// Gershgorin's bound), 10·2⁻⁵² per product for classical ones; a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
+// Gershgorin's bound), 10·2⁻⁵² per product for classical ones (known limit:
+// at ‖γL‖·t_max ≳ 10⁶ with rates spanning many decades, Krylov's rounding
+// can exceed its bound at tolerances ≲ 1e-11); a bound above max(10⁻³, 10⁴·tolerance) is "numerical",
 // field "tolerance". "chebyshev" needing more than 10⁹ products (about
 // ‖H‖·t_max) is refused as "too-large", field "method". A reported time
 // with ‖H‖·t < 2⁻⁵³ is propagated as t = 0 (the propagator is the identity
