@@ -31,7 +31,7 @@ func Bounds(h *sparse.CSR, steps int, seed uint64) (lo, hi float64, err error) {
 		steps = 40
 	}
 	steps = min(steps, n)
-	glo, ghi := gershgorin(h)
+	glo, ghi := h.Gershgorin()
 	if n == 1 {
 		return glo, ghi, nil
 	}
@@ -98,32 +98,4 @@ func Bounds(h *sparse.CSR, steps int, seed uint64) (lo, hi float64, err error) {
 	lo = math.Max(glo, vals[0]-pad)
 	hi = math.Min(ghi, vals[k-1]+pad)
 	return lo, hi, nil
-}
-
-// gershgorin returns the Gershgorin interval of h: every eigenvalue lies in
-// [min_i (d_i − r_i), max_i (d_i + r_i)], r_i the absolute row sum off the
-// diagonal.
-func gershgorin(h *sparse.CSR) (lo, hi float64) {
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for i := 0; i < h.N; i++ {
-		var r float64
-		for q := h.RowPtr[i]; q < h.RowPtr[i+1]; q++ {
-			v := h.Unit
-			if h.Val != nil {
-				v = h.Val[q]
-			}
-			var w float64
-			if h.Imag != nil {
-				w = h.Imag[q]
-			}
-			r += math.Hypot(v, w)
-		}
-		var d float64
-		if h.Diag != nil {
-			d = h.Diag[i]
-		}
-		lo = math.Min(lo, d-r)
-		hi = math.Max(hi, d+r)
-	}
-	return lo, hi
 }

@@ -185,7 +185,7 @@ func kpmMoments(ctx context.Context, h *sparse.CSR, s *KPMSettings, site int) ([
 				Msg: "Chebyshev moments grew beyond 1: the spectrum leaves the bounds [" +
 					ftoa(s.Lo) + ", " + ftoa(s.Hi) + "]"}
 		}
-		s.Lo, s.Hi = gershgorin(h) // the Lanczos bounds were too tight
+		s.Lo, s.Hi = h.Gershgorin() // the Lanczos bounds were too tight
 	}
 }
 

@@ -57,7 +57,7 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 		// CSR matrix.
 		radius := math.Inf(1)
 		if c, ok := op.(*sparse.CSR); ok {
-			lo, hi := gershgorin(c)
+			lo, hi := c.Gershgorin()
 			radius = math.Max(math.Abs(lo), math.Abs(hi))
 		}
 		exactOK := n <= exactMaxSites && EstimateBytes(n, nnz, Exact) <= s.MemoryLimit
@@ -124,7 +124,7 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 			// (for γL exactly [0, 2γ·max degree]); otherwise the Lanczos
 			// bounds with 5% more room, the norm check catching the rest.
 			if c, ok := op.(*sparse.CSR); ok {
-				lo, hi := gershgorin(c)
+				lo, hi := c.Gershgorin()
 				return newChebyshev(op, classical, interval{lo: lo, hi: hi}), iv.products, nil
 			}
 			if !haveIV {

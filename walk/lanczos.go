@@ -226,7 +226,7 @@ func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 	lo -= margin
 	hi += margin
 	if c, ok := op.(*sparse.CSR); ok {
-		glo, ghi := gershgorin(c)
+		glo, ghi := c.Gershgorin()
 		lo = math.Max(lo, glo)
 		hi = math.Min(hi, ghi)
 	}
@@ -234,32 +234,6 @@ func spectralInterval(ctx context.Context, op Operator) (interval, error) {
 		return interval{products: prods}, numerical("the spectral bounds are not finite")
 	}
 	return interval{lo: lo, hi: hi, products: prods, ritzLo: ritzLo}, nil
-}
-
-// gershgorin returns the hull of the Gershgorin discs of m.
-func gershgorin(m *sparse.CSR) (lo, hi float64) {
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for i := 0; i < m.N; i++ {
-		var r float64
-		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
-			re := m.Unit
-			if m.Val != nil {
-				re = m.Val[k]
-			}
-			var im float64
-			if m.Imag != nil {
-				im = m.Imag[k]
-			}
-			r += math.Hypot(re, im)
-		}
-		var d float64
-		if m.Diag != nil {
-			d = m.Diag[i]
-		}
-		lo = math.Min(lo, d-r)
-		hi = math.Max(hi, d+r)
-	}
-	return lo, hi
 }
 
 // dot returns xᴴy.
