@@ -115,7 +115,7 @@ func choose(ctx context.Context, op Operator, classical bool, times []float64, s
 		}
 		return newKrylov(op, classical), 0, nil
 	default:
-		if b := EstimateBytesFor(n, nnz, Chebyshev, times); b > s.MemoryLimit {
+		if b := EstimateBytesFor(n, nnz, Chebyshev, times, s.MemoryLimit); b > s.MemoryLimit {
 			return nil, 0, fault.Large("lattice", b, s.MemoryLimit)
 		}
 		if classical {

@@ -106,7 +106,7 @@ func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nst
 	}
 	n := c.op.Len()
 	maxAcc := planMaxAcc
-	if memLimit/10 < int64(planExtraVectors)*16*int64(max(n, 1)) || c.classical && c.b-c.a < -1e-12*c.a {
+	if !groupsFit(n, memLimit) || c.classical && c.b-c.a < -1e-12*c.a {
 		maxAcc = 1
 	}
 	p.groupE = planGroups(c, p.u, maxAcc, func(span float64) float64 { return p.tol(span) / norm0 })
@@ -132,6 +132,13 @@ func newChebPlan(c *chebyshev, times []float64, tolAbs, norm0, tmax float64, nst
 	p.bounds = make([]float64, planMaxAcc)
 	p.mat = make([]float64, planMaxAcc*planRing)
 	return p
+}
+
+// groupsFit reports whether the group workspace of n-site states
+// (planExtraVectors vectors of 16·n bytes) takes at most a tenth of
+// memLimit; EstimateBytesFor follows the same rule.
+func groupsFit(n int, memLimit int64) bool {
+	return int64(planExtraVectors)*16*int64(max(n, 1)) <= memLimit/10
 }
 
 // slotR and accR are ring slot j and accumulator q as reals; slotC and accC

@@ -19,7 +19,7 @@ func (j *Job) jobBytes(g *lattice.Graph) int64 {
 	b += 8*m + 16*2*m // weights and stored CSR values (weighted or disordered copies)
 	_, nr := j.realisations()
 	conc := int64(min(nr, workersFor(0)))
-	vec := EstimateBytesFor(g.Len(), 2*g.NumBonds(), j.Method, j.Times)
+	vec := EstimateBytesFor(g.Len(), 2*g.NumBonds(), j.Method, j.Times, fault.MemoryLimit())
 	if j.reports("average") && j.Window == nil {
 		vec += 2 * 16 * n * n
 	}

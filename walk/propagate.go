@@ -260,11 +260,13 @@ func EstimateBytes(n, nnz int, m Method) int64 {
 }
 
 // EstimateBytesFor is EstimateBytes for a propagation to the given
-// reported times. A Chebyshev propagation (or Auto's Chebyshev fallback)
-// whose times cannot share an expansion, fewer than two distinct positive
-// times, holds no group workspace (planExtraVectors state vectors fewer);
-// otherwise it is EstimateBytes.
-func EstimateBytesFor(n, nnz int, m Method, times []float64) int64 {
+// reported times under the memory limit memLimit (bytes). A Chebyshev
+// propagation (or Auto's Chebyshev fallback) holds the group workspace of
+// its expansion planner (planExtraVectors state vectors) only when at least
+// two distinct positive times can share an expansion and the workspace
+// takes at most a tenth of memLimit (groupsFit, the planner's own rule);
+// otherwise the estimate leaves it out. Other methods: EstimateBytes.
+func EstimateBytesFor(n, nnz int, m Method, times []float64, memLimit int64) int64 {
 	b := EstimateBytes(n, nnz, m)
 	if m != Chebyshev && m != Auto {
 		return b
@@ -276,7 +278,7 @@ func EstimateBytesFor(n, nnz int, m Method, times []float64) int64 {
 			prev = t
 		}
 	}
-	if distinct < 2 {
+	if distinct < 2 || !groupsFit(n, memLimit) {
 		b -= int64(planExtraVectors) * 16 * int64(max(n, 0))
 	}
 	return b

@@ -96,9 +96,14 @@ func TestEstimateBytes(t *testing.T) {
 	assert.Equal(t, int64(0), EstimateBytes(0, 0, Exact))
 	// Times that cannot share an expansion need no group workspace.
 	full := EstimateBytes(1e6, 4e6, Chebyshev)
-	assert.Equal(t, full, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 1, 2}))
-	assert.Equal(t, full-int64(planExtraVectors)*16e6, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 5, 5}))
-	assert.Equal(t, EstimateBytes(1e6, 4e6, Krylov), EstimateBytesFor(1e6, 4e6, Krylov, []float64{5}))
+	const big = 1 << 40
+	assert.Equal(t, full, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 1, 2}, big))
+	assert.Equal(t, full-int64(planExtraVectors)*16e6, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{0, 5, 5}, big))
+	assert.Equal(t, EstimateBytes(1e6, 4e6, Krylov), EstimateBytesFor(1e6, 4e6, Krylov, []float64{5}, big))
+	// Nor when the workspace would take more than a tenth of the limit.
+	lim := int64(planExtraVectors) * 16e6 * 10
+	assert.Equal(t, full, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{1, 2}, lim))
+	assert.Equal(t, full-int64(planExtraVectors)*16e6, EstimateBytesFor(1e6, 4e6, Chebyshev, []float64{1, 2}, lim-1))
 }
 
 func TestPropagateTimeZeroAndRepeats(t *testing.T) {

@@ -12,6 +12,7 @@ import (
 	"strings"
 	"time"
 
+	"github.com/ampwalk/ampwalk/internal/fault"
 	"github.com/ampwalk/ampwalk/lattice"
 	"github.com/ampwalk/ampwalk/walk"
 )
@@ -198,7 +199,7 @@ func run(c config, log io.Writer) (*result, error) {
 // before the propagation and are not counted.
 func estimate(n, bonds, dim int, times []float64) int64 {
 	return lattice.EstimateBytes(n, bonds, dim) +
-		walk.EstimateBytesFor(n, 2*bonds, walk.Chebyshev, times) +
+		walk.EstimateBytesFor(n, 2*bonds, walk.Chebyshev, times, fault.MemoryLimit()) +
 		8*int64(n) + 16*int64(len(times)) + 5<<20
 }
 
