@@ -29,6 +29,7 @@ func main() {
 	flag.Float64Var(&c.TMin, "tmin", 0.1, "first reported time (units of 1/γ)")
 	flag.Float64Var(&c.TMax, "tmax", 500, "last reported time (units of 1/γ)")
 	flag.IntVar(&c.Count, "count", 60, "number of reported times")
+	flag.BoolVar(&c.Classical, "classical", false, "propagate the classical walk dp/dt = −Lp (MSD of the probabilities) instead of the quantum walk")
 	flag.StringVar(&c.Spacing, "spacing", "log", "log or linear spacing of the reported times")
 	flag.Float64Var(&c.Tol, "tol", 1e-10, "target 2-norm error of the state at every reported time")
 	flag.IntVar(&c.Workers, "workers", 0, "worker goroutines for the products (0: all cores)")
@@ -59,8 +60,12 @@ func main() {
 		fmt.Printf("graph written (build %.3f s)\n", r.BuildSeconds)
 		return
 	}
-	fmt.Printf("method %s, products %d, a=%.6g (Ritz), a·t_max=%.6g, ratio %.3f\n",
-		r.Method, r.Products, r.HalfWidth, r.ATMax, r.Ratio)
+	if c.Classical {
+		fmt.Printf("classical walk, method %s, products %d\n", r.Method, r.Products)
+	} else {
+		fmt.Printf("method %s, products %d, a=%.6g (Ritz), a·t_max=%.6g, ratio %.3f\n",
+			r.Method, r.Products, r.HalfWidth, r.ATMax, r.Ratio)
+	}
 	fmt.Printf("build %.3f s, propagate %.3f s, workers %d, norm drift %.2g, error bound %.2g\n",
 		r.BuildSeconds, r.PropSeconds, r.Workers, r.NormDrift, r.ErrorBound)
 	fmt.Printf("memory estimate %.1f MiB, peak RSS %.1f MiB (ratio %.2f)\n",

@@ -83,6 +83,54 @@ func TestSmokeGasket4(t *testing.T) {
 	}
 }
 
+// TestSmokeGasket4Classical runs the classical walk dp/dt = −Lp on
+// generation 4 and checks the MSD against gonum's EigenSym of L = D − W
+// (gonum v0.17.0, the reference library), p(t) = V e^{−Λt} Vᵀ p(0).
+func TestSmokeGasket4Classical(t *testing.T) {
+	dir := t.TempDir()
+	prefix := filepath.Join(dir, "g4")
+	c := config{Lattice: "gasket", Generation: 4, TMin: 0.1, TMax: 50, Count: 12,
+		Spacing: "log", Tol: 1e-10, Workers: 2, Graph: prefix, Classical: true}
+	r, err := run(c, nil)
+	require.NoError(t, err)
+	require.Equal(t, "classical", r.Dynamics)
+	require.Equal(t, "chebyshev", r.Method)
+	require.Zero(t, r.HalfWidth) // no a·t_max yardstick for the classical series
+	bb, err := os.ReadFile(prefix + ".bonds.i32")
+	require.NoError(t, err)
+	pb, err := os.ReadFile(prefix + ".pos.f64")
+	require.NoError(t, err)
+	n := r.Sites
+	l := mat.NewSymDense(n, nil)
+	for k := 0; k < r.Bonds; k++ {
+		i := int(binary.LittleEndian.Uint32(bb[8*k:]))
+		j := int(binary.LittleEndian.Uint32(bb[8*k+4:]))
+		l.SetSym(i, j, -1)
+		l.SetSym(i, i, l.At(i, i)+1)
+		l.SetSym(j, j, l.At(j, j)+1)
+	}
+	var es mat.EigenSym
+	require.True(t, es.Factorize(l, true))
+	lam := es.Values(nil)
+	var v mat.Dense
+	es.VectorsTo(&v)
+	for q, tq := range r.Times {
+		var msd float64
+		for i := 0; i < n; i++ {
+			var p float64
+			for k := 0; k < n; k++ {
+				p += v.At(i, k) * v.At(r.Start, k) * math.Exp(-lam[k]*tq)
+			}
+			x := math.Float64frombits(binary.LittleEndian.Uint64(pb[16*i:]))
+			y := math.Float64frombits(binary.LittleEndian.Uint64(pb[16*i+8:]))
+			x0 := math.Float64frombits(binary.LittleEndian.Uint64(pb[16*r.Start:]))
+			y0 := math.Float64frombits(binary.LittleEndian.Uint64(pb[16*r.Start+8:]))
+			msd += p * ((x-x0)*(x-x0) + (y-y0)*(y-y0))
+		}
+		require.InDelta(t, msd, r.MSD[q], 1e-8*math.Max(msd, 1), "t=%g", tq)
+	}
+}
+
 func TestReportedTimes(t *testing.T) {
 	ts, err := reportedTimes(0.1, 500, 60, "log")
 	require.NoError(t, err)
