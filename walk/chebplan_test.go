@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"math/cmplx"
 	"math/rand/v2"
 	"testing"
 
@@ -335,4 +336,30 @@ func TestChebPlanClassical(t *testing.T) {
 		}
 		assert.InDelta(t, 1, sum, 1e-12, "t=%v", tk) // Σp is conserved (projected)
 	}
+}
+
+// TestChebyshevSplitsLongSteps reaches a time whose span a·t is beyond
+// maxSegment (and maxGroupSpan), so the restarting step splits it, and
+// checks the return amplitude on the cycle C_17 against the closed form
+// ⟨0|U|0⟩ = (1/N)Σ_k e^{−2it cos(2πk/N)} (references.md [derived]).
+func TestChebyshevSplitsLongSteps(t *testing.T) {
+	const N = 17
+	g := graph(t, N, chainBonds(N, true), nil)
+	tm := 1.2 * maxSegment / 2 // a = 2 on the cycle
+	var got complex128
+	d, err := Propagate(context.Background(), g.Hamiltonian(1), Quantum, basis(N, 0), []float64{1, tm},
+		Settings{Method: Chebyshev}, func(k int, _ float64, psi []complex128) error {
+			got = psi[0]
+			return nil
+		})
+	require.NoError(t, err)
+	var z complex128
+	for k := 0; k < N; k++ {
+		z += cmplx.Exp(complex(0, -2*tm*math.Cos(2*math.Pi*float64(k)/float64(N))))
+	}
+	z /= N
+	// The default tolerance plus the phase rounding ε·‖H‖·t ≈ 5e-12.
+	assert.InDelta(t, 0, cmplx.Abs(z-got), 1e-9)
+	assert.LessOrEqual(t, d.ErrorBound, 1e-10)
+	assert.Greater(t, d.Products, 2*int(tm), "about a·t products")
 }

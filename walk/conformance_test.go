@@ -268,7 +268,8 @@ func conformanceCases(t *testing.T) []confCase {
 
 	// Cycle C_N: eigenvalues 2cos(2πk/N) with plane-wave vectors, so
 	// ⟨0|U|0⟩ = (1/N)Σ_k e^{−2it cos(2πk/N)} (references.md [derived]); long
-	// times test long steps (a·Δt ≈ 2·300 > maxSegment splits a Chebyshev step).
+	// times test long steps (TestChebyshevSplitsLongSteps covers a·Δt beyond
+	// maxSegment).
 	for _, N := range []int{17, 40} {
 		cases = append(cases, confCase{
 			name: "cycle-" + strconv.Itoa(N), g: graph(t, N, chainBonds(N, true), nil), gamma: 1, start: 0,
