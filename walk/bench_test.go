@@ -63,3 +63,31 @@ func BenchmarkPropagateGasket12(b *testing.B) { benchPropagate(b, 12, 100, 30, 0
 
 // BenchmarkPropagateGasket10Serial is generation 10 on one worker.
 func BenchmarkPropagateGasket10Serial(b *testing.B) { benchPropagate(b, 10, 500, 60, 1) }
+
+// BenchmarkClassicalGasket10 is the classical walk dp/dt = −Lp on
+// generation 10 from the same corner, 60 log-spaced times 0.1…500,
+// Chebyshev, tolerance 1e-10 (grouped expansions on real vectors).
+func BenchmarkClassicalGasket10(b *testing.B) {
+	g, err := lattice.Gasket(10)
+	if err != nil {
+		b.Fatal(err)
+	}
+	times := make([]float64, 60)
+	for k := range times {
+		times[k] = 0.1 * math.Pow(5000, float64(k)/59)
+	}
+	p0 := make([]float64, g.Len())
+	p0[0] = 1
+	s := walk.Settings{Method: walk.Chebyshev, Tolerance: 1e-10}
+	b.ReportAllocs()
+	b.ResetTimer()
+	var products int
+	for range b.N {
+		d, err := walk.ClassicalWalk(context.Background(), g, 1, p0, times, s, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		products = d.Products
+	}
+	b.ReportMetric(float64(products), "products/op")
+}
