@@ -62,15 +62,8 @@ func chebStepComplex(m *sparse.CSR, dst, cur, prev []complex128, s, b float64, f
 		lo, hi := rp[i], rp[i+1]
 		var hr, hi2 float64
 		for k, j := range col[lo:hi] {
-			q := int(lo) + k
-			v := m.Unit
-			if m.Val != nil {
-				v = m.Val[q]
-			}
-			var w float64
-			if m.Imag != nil {
-				w = m.Imag[q]
-			}
+			e := m.Entry(int(lo) + k)
+			v, w := real(e), imag(e)
 			xr, xi := real(cur[j]), imag(cur[j])
 			hr += v*xr - w*xi
 			hi2 += v*xi + w*xr

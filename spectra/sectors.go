@@ -410,15 +410,7 @@ func block(h *sparse.CSR, o *orbitSet, orders, q, idx []int, d int) []complex128
 			if c < 0 {
 				continue
 			}
-			v := h.Unit
-			if h.Val != nil {
-				v = h.Val[k]
-			}
-			var im float64
-			if h.Imag != nil {
-				im = h.Imag[k]
-			}
-			blk[a*d+c] += w * complex(v, im) * o.coef(j, orders, q)
+			blk[a*d+c] += w * h.Entry(int(k)) * o.coef(j, orders, q)
 		}
 	}
 	// Rounding leaves the block Hermitian to ~1e-16; symmetrise it exactly.

@@ -82,15 +82,22 @@ func (m *CSR) At(i, j int) complex128 {
 		if int(m.Col[k]) != j {
 			continue
 		}
-		v := m.Unit
-		if m.Val != nil {
-			v = m.Val[k]
-		}
-		var im float64
-		if m.Imag != nil {
-			im = m.Imag[k]
-		}
-		z += complex(v, im)
+		z += m.Entry(int(k))
 	}
 	return z
+}
+
+// Entry returns stored off-diagonal entry k (0 ≤ k < NNZ): Unit for
+// pattern-only storage, otherwise Val[k], plus i·Imag[k] when the matrix is
+// complex.
+func (m *CSR) Entry(k int) complex128 {
+	v := m.Unit
+	if m.Val != nil {
+		v = m.Val[k]
+	}
+	var im float64
+	if m.Imag != nil {
+		im = m.Imag[k]
+	}
+	return complex(v, im)
 }

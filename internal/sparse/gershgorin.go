@@ -12,15 +12,8 @@ func (m *CSR) Gershgorin() (lo, hi float64) {
 	for i := 0; i < m.N; i++ {
 		var r float64
 		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
-			re := m.Unit
-			if m.Val != nil {
-				re = m.Val[k]
-			}
-			var im float64
-			if m.Imag != nil {
-				im = m.Imag[k]
-			}
-			r += math.Hypot(re, im)
+			e := m.Entry(int(k))
+			r += math.Hypot(real(e), imag(e))
 		}
 		var d float64
 		if m.Diag != nil {
